@@ -1,0 +1,49 @@
+import { createAccessControl } from 'better-auth/plugins/access';
+import { defaultStatements } from 'better-auth/plugins/organization/access';
+import type { StaffRole } from '@rinkwright/core';
+
+// Every permission a rink role can hold, defined once. better-auth's organization plugin checks its own
+// endpoints (invitations) with these roles, and our route table checks every rink route with them too.
+export const statements = {
+  ...defaultStatements,
+  rink: ['read', 'update'],
+  member: ['read', 'create', 'update', 'delete'],
+  invitation: ['read', 'create', 'cancel'],
+  customer: ['read', 'create', 'update'],
+} as const;
+
+export const ac = createAccessControl(statements);
+
+const staffRead = { rink: ['read'], customer: ['read'] } as const;
+
+export const roles = {
+  owner: ac.newRole({
+    organization: ['update', 'delete'],
+    rink: ['read', 'update'],
+    member: ['read', 'create', 'update', 'delete'],
+    invitation: ['read', 'create', 'cancel'],
+    customer: ['read', 'create', 'update'],
+  }),
+  manager: ac.newRole({
+    organization: ['update'],
+    rink: ['read', 'update'],
+    member: ['read', 'create', 'update', 'delete'],
+    invitation: ['read', 'create', 'cancel'],
+    customer: ['read', 'create', 'update'],
+  }),
+  technician: ac.newRole({ ...staffRead, customer: ['read', 'create', 'update'] }),
+  league_manager: ac.newRole({ ...staffRead }),
+} satisfies Record<StaffRole, unknown>;
+
+export type Permission = { [K in keyof typeof statements]?: (typeof statements)[K][number][] };
+
+export function roleAllows(role: StaffRole, permission: Permission): boolean {
+  return roles[role].authorize(permission as never).success;
+}
+
+/** The role's statements, for the web app to shape its navigation. */
+export function permissionsOf(role: StaffRole): Record<string, string[]> {
+  return Object.fromEntries(
+    Object.entries(roles[role].statements).map(([k, v]) => [k, [...(v as readonly string[])]]),
+  );
+}

@@ -1,0 +1,53 @@
+import type { Express, Request } from 'express';
+import type { z } from 'zod';
+import type { Auth } from '../auth';
+import { roleAllows } from '../access';
+import { findCaller, requireCaller, resolveRink } from '../middleware/context';
+import { AppError, fieldsOf } from './errors';
+import type { Route } from './route';
+
+function parsePart(schema: z.ZodType | undefined, value: unknown, part: 'params' | 'query' | 'body'): unknown {
+  if (!schema) return undefined;
+  const parsed = schema.safeParse(value ?? (part === 'body' ? {} : value));
+  if (!parsed.success) {
+    throw new AppError('validation_failed', 'Some fields need attention', fieldsOf(parsed.error, part === 'body' ? undefined : part));
+  }
+  return parsed.data;
+}
+
+async function contextFor(route: Route, auth: Auth, req: Request): Promise<unknown> {
+  switch (route.access) {
+    case 'public':
+      return { user: await findCaller(auth, req) };
+    case 'user':
+      return requireCaller(auth, req);
+    case 'platform': {
+      const caller = await requireCaller(auth, req);
+      if (!caller.platformAdmin) throw AppError.notFound('No such page');
+      return caller;
+    }
+    case 'rink': {
+      const caller = await requireCaller(auth, req);
+      const ctx = await resolveRink(caller, String(req.params.rinkSlug));
+      if (route.permission && !roleAllows(ctx.role, route.permission)) {
+        throw new AppError('forbidden', 'Your role at this rink does not allow this');
+      }
+      return ctx;
+    }
+  }
+}
+
+/** Mounts the route table: context (sign-in, tenant, role) first, then validation, handler, response shape. */
+export function mountRoutes(app: Express, routes: Route[], auth: Auth): void {
+  for (const route of routes) {
+    app[route.method](route.path, async (req, res) => {
+      const ctx = await contextFor(route, auth, req);
+      const params = parsePart(route.params, req.params, 'params');
+      const query = parsePart(route.query, req.query, 'query');
+      const body = parsePart(route.body, req.body, 'body');
+      const result = await route.handle({ ctx, params, query, body, req, res });
+      // The response schema is the contract: it also strips anything a handler should not have returned.
+      res.status(route.status).json(route.response.parse(result));
+    });
+  }
+}

@@ -1,0 +1,38 @@
+import type { Request } from 'express';
+import { fromNodeHeaders } from 'better-auth/node';
+import { directory } from '@rinkwright/db';
+import { STAFF_ROLES, type StaffRole } from '@rinkwright/core';
+import type { Auth } from '../auth';
+import { AppError } from '../http/errors';
+import type { RinkContext, UserContext } from '../http/route';
+
+export async function findCaller(auth: Auth, req: Request): Promise<UserContext | null> {
+  const found = await auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
+  if (!found) return null;
+  const { user } = found;
+  return { userId: user.id, email: user.email, name: user.name, platformAdmin: user.role === 'admin' };
+}
+
+export async function requireCaller(auth: Auth, req: Request): Promise<UserContext> {
+  const caller = await findCaller(auth, req);
+  if (!caller) throw new AppError('unauthenticated', 'Sign in to continue');
+  return caller;
+}
+
+const NOT_FOUND = 'No such rink, or you are not one of its staff';
+
+/**
+ * Resolves /api/rinks/:rinkSlug to the caller's membership. A rink the caller is not a member of answers
+ * exactly like a rink that does not exist, so nobody can probe for another rink's slugs or ids.
+ */
+export async function resolveRink(caller: UserContext, slug: string): Promise<RinkContext> {
+  const found = await directory.findRinkBySlug(slug);
+  if (!found) throw AppError.notFound(NOT_FOUND);
+  const membership = await directory.findMembership(caller.userId, found.id);
+  if (!membership || !isStaffRole(membership.role)) throw AppError.notFound(NOT_FOUND);
+  return { ...caller, tenantId: found.id, rinkSlug: found.slug, role: membership.role, memberId: membership.id };
+}
+
+function isStaffRole(role: string): role is StaffRole {
+  return (STAFF_ROLES as readonly string[]).includes(role);
+}

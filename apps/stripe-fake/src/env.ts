@@ -1,0 +1,17 @@
+import { z } from 'zod';
+
+// The payment fake's settings. This is the only file of the fake that reads process.env.
+const envSchema = z.object({
+  STRIPE_FAKE_HOST: z.string().min(1).default('127.0.0.1'),
+  STRIPE_FAKE_PORT: z.coerce.number().int().min(1).max(65535).default(12111),
+});
+
+export type Env = z.infer<typeof envSchema>;
+
+export function loadEnv(source: Record<string, string | undefined> = process.env): Env {
+  const parsed = envSchema.safeParse(source);
+  if (!parsed.success) {
+    throw new Error(`invalid payment fake settings:\n${z.prettifyError(parsed.error)}`);
+  }
+  return parsed.data;
+}

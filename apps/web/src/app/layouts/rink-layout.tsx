@@ -1,0 +1,46 @@
+import { NavLink, Outlet, useParams } from 'react-router';
+import { Alert, Loading } from '../../components/ui/feedback';
+import { NotFound } from '../../components/ui/not-found';
+import { useRinkSummary } from '../../features/rinks/api/get-rink';
+import { ApiError } from '../../lib/api-client';
+import { can } from '../../lib/rink-context';
+
+/** Loads the rink once for every page under /rinks/:rinkSlug and shows only what the caller's role may open. */
+export function RinkLayout() {
+  const { rinkSlug = '' } = useParams();
+  const rink = useRinkSummary(rinkSlug);
+  if (rink.isPending) return <Loading label="Opening the rink…" />;
+  if (rink.isError) {
+    if (rink.error instanceof ApiError && rink.error.status === 404) return <NotFound message="No such rink, or you are not one of its staff." />;
+    return (
+      <div className="mx-auto max-w-3xl px-4 py-8">
+        <Alert>{rink.error.message}</Alert>
+      </div>
+    );
+  }
+  const summary = rink.data;
+  const links = [
+    { to: '', label: 'Overview', show: true },
+    { to: 'staff', label: 'Staff', show: can(summary, 'member', 'read') },
+    { to: 'settings', label: 'Settings', show: can(summary, 'rink', 'update') },
+  ].filter((l) => l.show);
+  return (
+    <div className="mx-auto max-w-6xl px-4 py-6">
+      <nav aria-label={`${summary.name} sections`} className="mb-6 flex flex-wrap gap-1 border-b border-rule">
+        {links.map((l) => (
+          <NavLink
+            key={l.to}
+            to={l.to}
+            end
+            className={({ isActive }) =>
+              `flex min-h-11 items-center border-b-4 px-4 text-sm font-semibold ${isActive ? 'border-steel text-ink' : 'border-transparent text-ink-soft hover:text-ink'}`
+            }
+          >
+            {l.label}
+          </NavLink>
+        ))}
+      </nav>
+      <Outlet context={summary} />
+    </div>
+  );
+}

@@ -1,0 +1,56 @@
+import type { QueryClient } from '@tanstack/react-query';
+import { createBrowserRouter, redirect, type LoaderFunctionArgs } from 'react-router';
+import { NotFound } from '../components/ui/not-found';
+import { meQuery } from '../lib/session';
+import { RinkLayout } from './layouts/rink-layout';
+import { RootLayout } from './layouts/root-layout';
+import { RouteError } from './route-error';
+
+// Route modules are lazy: each screen is its own chunk, loaded when first visited.
+export function createAppRouter(client: QueryClient) {
+  const requireUser = async ({ request }: LoaderFunctionArgs) => {
+    const me = await client.ensureQueryData(meQuery);
+    if (!me) {
+      const url = new URL(request.url);
+      throw redirect(`/sign-in?next=${encodeURIComponent(url.pathname + url.search)}`);
+    }
+    return null;
+  };
+
+  return createBrowserRouter([
+    {
+      element: <RootLayout />,
+      errorElement: <RouteError />,
+      children: [
+        { index: true, lazy: () => import('../features/landing/routes/landing') },
+        { path: 'sign-in', lazy: () => import('../features/auth/routes/sign-in') },
+        { path: 'sign-up', lazy: () => import('../features/auth/routes/sign-up') },
+        { path: 'check-email', lazy: () => import('../features/auth/routes/check-email') },
+        { path: 'verified', lazy: () => import('../features/auth/routes/verified') },
+        { path: 'forgot-password', lazy: () => import('../features/auth/routes/forgot-password') },
+        { path: 'reset-password', lazy: () => import('../features/auth/routes/reset-password') },
+        { path: 'invitations/:invitationId', lazy: () => import('../features/staff/routes/accept-invitation') },
+        {
+          loader: requireUser,
+          children: [
+            { path: 'rinks', lazy: () => import('../features/rinks/routes/rink-chooser') },
+            { path: 'rinks/new', lazy: () => import('../features/rinks/routes/create-rink') },
+            { path: 'account', lazy: () => import('../features/account/routes/account') },
+            { path: 'platform', lazy: () => import('../features/platform/routes/platform-rinks') },
+            {
+              path: 'rinks/:rinkSlug',
+              element: <RinkLayout />,
+              errorElement: <RouteError />,
+              children: [
+                { index: true, lazy: () => import('../features/rinks/routes/rink-overview') },
+                { path: 'staff', lazy: () => import('../features/staff/routes/staff') },
+                { path: 'settings', lazy: () => import('../features/rinks/routes/rink-settings') },
+              ],
+            },
+          ],
+        },
+        { path: '*', element: <NotFound /> },
+      ],
+    },
+  ]);
+}

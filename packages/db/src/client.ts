@@ -1,0 +1,55 @@
+import { drizzle, type MySql2Database } from 'drizzle-orm/mysql2';
+import mysql from 'mysql2/promise';
+import * as schema from './schema/index';
+
+export type Database = MySql2Database<typeof schema>;
+export type Transaction = Parameters<Parameters<Database['transaction']>[0]>[0];
+export type Executor = Database | Transaction;
+
+export interface DbHandle {
+  db: Database;
+  pool: mysql.Pool;
+  close: () => Promise<void>;
+}
+
+export function createDbHandle(url: string, options: { connectionLimit?: number } = {}): DbHandle {
+  const pool = mysql.createPool({
+    uri: url,
+    // Times are UTC in the database (stack notes: without this mysql2 converts to the process zone).
+    timezone: 'Z',
+    connectionLimit: options.connectionLimit ?? 10,
+    supportBigNumbers: true,
+    dateStrings: false,
+  });
+  const db = drizzle(pool, { schema, mode: 'default' });
+  return { db, pool, close: () => pool.end() };
+}
+
+let current: DbHandle | undefined;
+
+/** Opens the process-wide pool that scoped() and the repositories use. */
+export function connectDb(url: string, options?: { connectionLimit?: number }): DbHandle {
+  if (current) return current;
+  current = createDbHandle(url, options);
+  return current;
+}
+
+export async function disconnectDb(): Promise<void> {
+  const handle = current;
+  current = undefined;
+  await handle?.close();
+}
+
+export function currentDb(): Database {
+  if (!current) throw new Error('Database not connected: call connectDb(url) at start-up');
+  return current.db;
+}
+
+export async function pingDb(): Promise<boolean> {
+  try {
+    await current?.pool.query('SELECT 1');
+    return current !== undefined;
+  } catch {
+    return false;
+  }
+}

@@ -1,0 +1,86 @@
+import { and, asc, eq, isNull } from 'drizzle-orm';
+import { currentDb } from './client';
+import { customer, invitation, member, rink, user } from './schema/index';
+
+// The few reads that are not inside one rink by nature: they start from the signed-in user (which rinks am
+// I in?) or from a rink slug (which tenant is this URL?). Each is keyed by the caller's own user id or by the
+// slug the tenant middleware resolves, so none of them lets a caller name another rink's rows.
+
+export async function findRinkBySlug(slug: string) {
+  const rows = await currentDb().select().from(rink).where(eq(rink.slug, slug)).limit(1);
+  return rows[0];
+}
+
+export async function findMembership(userId: string, rinkId: string) {
+  const rows = await currentDb()
+    .select({ id: member.id, role: member.role })
+    .from(member)
+    .where(and(eq(member.userId, userId), eq(member.organizationId, rinkId)))
+    .limit(1);
+  return rows[0];
+}
+
+export async function listMembershipsOfUser(userId: string) {
+  return currentDb()
+    .select({
+      rinkId: rink.id,
+      slug: rink.slug,
+      name: rink.name,
+      role: member.role,
+      timeZone: rink.timeZone,
+      currency: rink.currency,
+      unitPreference: rink.unitPreference,
+    })
+    .from(member)
+    .innerJoin(rink, eq(rink.id, member.organizationId))
+    .where(eq(member.userId, userId))
+    .orderBy(asc(rink.name));
+}
+
+export async function listCustomerLinksOfUser(userId: string) {
+  return currentDb()
+    .select({ customerId: customer.id, memberCode: customer.memberCode, slug: rink.slug, name: rink.name })
+    .from(customer)
+    .innerJoin(rink, eq(rink.id, customer.tenantId))
+    .where(eq(customer.userId, userId))
+    .orderBy(asc(rink.name));
+}
+
+/**
+ * Links every unlinked customer record whose e-mail is this user's verified e-mail, at every rink.
+ * Called when the e-mail becomes verified; one person can be a customer of several rinks.
+ */
+export async function linkCustomersByVerifiedEmail(userId: string): Promise<number> {
+  const db = currentDb();
+  const [person] = await db.select({ email: user.email, verified: user.emailVerified }).from(user).where(eq(user.id, userId));
+  if (!person?.verified) return 0;
+  const [result] = await db
+    .update(customer)
+    .set({ userId })
+    .where(and(eq(customer.email, person.email.toLowerCase()), isNull(customer.userId)));
+  return result.affectedRows;
+}
+
+export async function findUserByEmail(email: string) {
+  const rows = await currentDb().select().from(user).where(eq(user.email, email.toLowerCase())).limit(1);
+  return rows[0];
+}
+
+/** An invitation by its id, which only the invitation e-mail carries (a 122-bit random UUID). */
+export async function findInvitationPreview(invitationId: string) {
+  const rows = await currentDb()
+    .select({
+      id: invitation.id,
+      email: invitation.email,
+      role: invitation.role,
+      status: invitation.status,
+      expiresAt: invitation.expiresAt,
+      rinkName: rink.name,
+      rinkSlug: rink.slug,
+    })
+    .from(invitation)
+    .innerJoin(rink, eq(rink.id, invitation.organizationId))
+    .where(eq(invitation.id, invitationId))
+    .limit(1);
+  return rows[0];
+}

@@ -1,0 +1,3 @@
+export * from './auth';
+export * from './rinks';
+export * from './customers';

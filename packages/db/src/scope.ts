@@ -1,0 +1,152 @@
+import { and, count as countFn, eq, type SQL } from 'drizzle-orm';
+import { getTableConfig, type AnyMySqlColumn, type MySqlTable } from 'drizzle-orm/mysql-core';
+import { currentDb, type Executor } from './client';
+import { rink } from './schema/index';
+import { isTenantTable } from './tenancy';
+
+// The one door to tenant data. Every read, update and delete made through a scope carries
+// `tenant_id = ?`, and every insert sets tenant_id; callers cannot pass a tenant of their own.
+
+type Row<T extends MySqlTable> = T['$inferSelect'];
+type NewRow<T extends MySqlTable> = T['$inferInsert'];
+type Fields = Record<string, AnyMySqlColumn>;
+type Picked<F extends Fields> = { [K in keyof F]: F[K]['_']['notNull'] extends true ? F[K]['_']['data'] : F[K]['_']['data'] | null };
+
+interface FindOptions {
+  where?: SQL | undefined;
+  orderBy?: SQL | AnyMySqlColumn | (SQL | AnyMySqlColumn)[];
+  limit?: number;
+  offset?: number;
+}
+
+interface Join {
+  table: MySqlTable;
+  on: SQL;
+}
+
+/** The part of Drizzle's select builder this module chains; its generics do not survive a generic table. */
+interface Chain extends PromiseLike<unknown[]> {
+  where(condition: SQL): Chain;
+  innerJoin(table: MySqlTable, on: SQL): Chain;
+  orderBy(...order: (SQL | AnyMySqlColumn)[]): Chain;
+  limit(n: number): Chain;
+  offset(n: number): Chain;
+}
+
+export interface Scope {
+  readonly tenantId: string;
+  filter(table: MySqlTable, where?: SQL): SQL;
+  find<T extends MySqlTable>(table: T, options?: FindOptions): Promise<Row<T>[]>;
+  findOne<T extends MySqlTable>(table: T, where: SQL): Promise<Row<T> | undefined>;
+  findJoined<F extends Fields>(table: MySqlTable, options: FindOptions & { fields: F; joins: Join[] }): Promise<Picked<F>[]>;
+  count(table: MySqlTable, where?: SQL): Promise<number>;
+  insert<T extends MySqlTable>(table: T, values: NewRow<T> | NewRow<T>[]): Promise<void>;
+  update<T extends MySqlTable>(table: T, set: Partial<NewRow<T>>, where: SQL): Promise<number>;
+  remove(table: MySqlTable, where: SQL): Promise<number>;
+  rink(): Promise<typeof rink.$inferSelect | undefined>;
+  updateRink(set: RinkSettings): Promise<void>;
+  transaction<R>(fn: (tx: Scope) => Promise<R>): Promise<R>;
+}
+
+export type RinkSettings = Partial<Omit<typeof rink.$inferInsert, 'id' | 'slug' | 'createdAt'>>;
+
+const tenantColumns = new WeakMap<MySqlTable, AnyMySqlColumn>();
+
+/** The column named tenant_id, whatever its property name (better-auth's tables call it organizationId). */
+export function tenantColumnOf(table: MySqlTable): AnyMySqlColumn {
+  const cached = tenantColumns.get(table);
+  if (cached) return cached;
+  const config = getTableConfig(table);
+  if (!isTenantTable(config.name)) throw new Error(`${config.name} is not a tenant table`);
+  const column = config.columns.find((c) => c.name === 'tenant_id');
+  if (!column) throw new Error(`${config.name} has no tenant_id column`);
+  tenantColumns.set(table, column);
+  return column;
+}
+
+function tenantPropertyOf(table: MySqlTable): string {
+  const column = tenantColumnOf(table);
+  const entry = Object.entries(table).find(([, value]) => value === column);
+  if (!entry) throw new Error('tenant column not found on table object');
+  return entry[0];
+}
+
+function orderList(orderBy: FindOptions['orderBy']): (SQL | AnyMySqlColumn)[] {
+  if (orderBy === undefined) return [];
+  return Array.isArray(orderBy) ? orderBy : [orderBy];
+}
+
+export function scoped(tenantId: string, executor?: Executor): Scope {
+  const exec = (): Executor => executor ?? currentDb();
+  const filter = (table: MySqlTable, where?: SQL) => and(eq(tenantColumnOf(table), tenantId), where) as SQL;
+  const joinOn = (join: Join) => (isTenantTable(getTableConfig(join.table).name) ? filter(join.table, join.on) : join.on);
+  const finish = (query: Chain, options: FindOptions): Chain => {
+    const order = orderList(options.orderBy);
+    if (order.length) query = query.orderBy(...order);
+    if (options.limit !== undefined) query = query.limit(options.limit);
+    if (options.offset !== undefined) query = query.offset(options.offset);
+    return query;
+  };
+
+  const scope: Scope = {
+    tenantId,
+    filter,
+
+    async find(table, options = {}) {
+      const query = exec().select().from(table as MySqlTable).$dynamic() as unknown as Chain;
+      return (await finish(query.where(filter(table, options.where)), options)) as never;
+    },
+
+    async findOne(table, where) {
+      const rows = await scope.find(table, { where, limit: 1 });
+      return rows[0];
+    },
+
+    async findJoined(table, options) {
+      let query = exec().select(options.fields).from(table).$dynamic() as unknown as Chain;
+      for (const join of options.joins) query = query.innerJoin(join.table, joinOn(join));
+      return (await finish(query.where(filter(table, options.where)), options)) as never;
+    },
+
+    async count(table, where) {
+      const rows = await exec().select({ n: countFn() }).from(table).where(filter(table, where));
+      return rows[0]?.n ?? 0;
+    },
+
+    async insert(table, values) {
+      const key = tenantPropertyOf(table);
+      const list = (Array.isArray(values) ? values : [values]).map((v) => ({ ...v, [key]: tenantId }));
+      if (list.length === 0) return;
+      await exec().insert(table).values(list);
+    },
+
+    async update(table, set, where) {
+      const key = tenantPropertyOf(table);
+      if (key in set) throw new Error('tenant_id cannot be changed');
+      const [result] = await exec().update(table).set(set).where(filter(table, where));
+      return result.affectedRows;
+    },
+
+    async remove(table, where) {
+      const [result] = await exec().delete(table).where(filter(table, where));
+      return result.affectedRows;
+    },
+
+    /** The tenant's own rink row (the rink table is the tenant registry, keyed by the tenant id). */
+    async rink() {
+      const rows = await exec().select().from(rink).where(eq(rink.id, tenantId)).limit(1);
+      return rows[0];
+    },
+
+    async updateRink(set) {
+      await exec().update(rink).set(set).where(eq(rink.id, tenantId));
+    },
+
+    /** Runs fn in one transaction with a scope bound to it (a scope already in one reuses it). */
+    async transaction(fn) {
+      if (executor) return fn(scope);
+      return currentDb().transaction((tx) => fn(scoped(tenantId, tx)));
+    },
+  };
+  return scope;
+}

@@ -1,0 +1,111 @@
+import { fileURLToPath } from 'node:url';
+import { eq } from 'drizzle-orm';
+import { createDbHandle, type Database } from './client';
+import {
+  addMember,
+  createCustomer,
+  createInvitation,
+  createRink,
+  createUser,
+  memberCode,
+  seededFaker,
+  type StaffRole,
+} from './factories';
+import { rink } from './schema/index';
+
+// The demo: two independent, invented rinks. Everything comes from the shared factories and one fixed seed.
+export const DEMO_PASSWORD = 'rinkwright-demo';
+const SEED = 20261201;
+
+export const DEMO_SIGN_INS = [
+  { email: 'admin@rinkwright.test', what: 'platform admin' },
+  { email: 'owner@ice-harbor.test', what: 'Ice Harbor owner' },
+  { email: 'manager@ice-harbor.test', what: 'Ice Harbor manager' },
+  { email: 'tech@ice-harbor.test', what: 'Ice Harbor technician' },
+  { email: 'league@ice-harbor.test', what: 'Ice Harbor league manager' },
+  { email: 'skater@ice-harbor.test', what: 'skater (customer of both rinks)' },
+  { email: 'owner@north-pond.test', what: 'North Pond Arena owner' },
+  { email: 'manager@north-pond.test', what: 'North Pond Arena manager' },
+  { email: 'tech@north-pond.test', what: 'North Pond Arena technician' },
+] as const;
+
+export async function seedDemo(db: Database): Promise<'seeded' | 'already-seeded'> {
+  const existing = await db.select({ id: rink.id }).from(rink).where(eq(rink.slug, 'ice-harbor')).limit(1);
+  if (existing.length > 0) return 'already-seeded';
+  const faker = seededFaker(SEED);
+  const random = () => faker.number.float({ min: 0, max: 1, fractionDigits: 8 });
+
+  await db.transaction(async (tx) => {
+    const person = (email: string, name: string, platformRole?: 'admin') =>
+      createUser(tx, { email, name, password: DEMO_PASSWORD, verified: true, platformRole });
+
+    await person('admin@rinkwright.test', 'Platform Admin', 'admin');
+    const iceHarbor = await createRink(tx, {
+      name: 'Ice Harbor',
+      slug: 'ice-harbor',
+      timeZone: 'America/Halifax',
+      currency: 'CAD',
+      unitPreference: 'in',
+    });
+    const northPond = await createRink(tx, {
+      name: 'North Pond Arena',
+      slug: 'north-pond-arena',
+      timeZone: 'America/Winnipeg',
+      currency: 'CAD',
+      unitPreference: 'mm',
+    });
+
+    const staff: [string, string, string, StaffRole][] = [
+      [iceHarbor.id, 'owner@ice-harbor.test', 'Rowan Okafor-Lind', 'owner'],
+      [iceHarbor.id, 'manager@ice-harbor.test', 'Priya Vandermeer', 'manager'],
+      [iceHarbor.id, 'tech@ice-harbor.test', 'Teodor Halloran', 'technician'],
+      [iceHarbor.id, 'league@ice-harbor.test', 'Marisol Quennell', 'league_manager'],
+      [northPond.id, 'manager@north-pond.test', 'Anneke Bramwell', 'manager'],
+      [northPond.id, 'tech@north-pond.test', 'Desmond Aukett', 'technician'],
+    ];
+    const users = new Map<string, string>();
+    for (const [rinkId, email, name, role] of staff) {
+      const u = await person(email, name, undefined);
+      users.set(email, u.id);
+      await addMember(tx, rinkId, u.id, role);
+    }
+    const northOwner = await person('owner@north-pond.test', 'Ingrid Tallowmere');
+    await addMember(tx, northPond.id, northOwner.id, 'owner');
+
+    const skater = await person('skater@ice-harbor.test', 'Jun Castellane');
+    await createCustomer(tx, iceHarbor.id, { name: 'Jun Castellane', email: skater.email, userId: skater.id, code: memberCode(random) });
+    await createCustomer(tx, northPond.id, { name: 'Jun Castellane', email: skater.email, userId: skater.id, code: memberCode(random) });
+
+    for (const [target, count] of [
+      [iceHarbor.id, 40],
+      [northPond.id, 15],
+    ] as const) {
+      for (let i = 0; i < count; i++) {
+        const first = faker.person.firstName();
+        const last = faker.person.lastName();
+        const hasEmail = random() < 0.7;
+        await createCustomer(tx, target, {
+          name: `${first} ${last}`,
+          email: hasEmail ? `${first}.${last}.${i}@skaters.example`.toLowerCase().replace(/[^a-z0-9.@-]/g, '') : null,
+          phone: hasEmail && random() < 0.5 ? null : `555-01${String(i).padStart(2, '0')}`,
+          code: memberCode(random),
+        });
+      }
+    }
+
+    const managerId = users.get('manager@ice-harbor.test');
+    if (managerId) await createInvitation(tx, { rinkId: iceHarbor.id, inviterId: managerId, email: 'new-tech@ice-harbor.test', role: 'technician' });
+  });
+  return 'seeded';
+}
+
+if (process.argv[1] === fileURLToPath(import.meta.url)) {
+  const { dbEnv } = await import('./env');
+  const handle = createDbHandle(dbEnv.DATABASE_URL, { connectionLimit: 2 });
+  try {
+    const outcome = await seedDemo(handle.db);
+    console.log(outcome === 'seeded' ? 'demo data seeded' : 'demo data already present: left as it is');
+  } finally {
+    await handle.close();
+  }
+}

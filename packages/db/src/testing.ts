@@ -1,0 +1,2 @@
+export * from './factories';
+export { runMigrations } from './migrate';

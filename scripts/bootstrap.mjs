@@ -1,0 +1,136 @@
+#!/usr/bin/env node
+// Entry point of npm start / test / run stop / run dev. Plain Node on purpose: it runs before any dependency exists.
+import { existsSync, mkdirSync } from 'node:fs';
+import { BootstrapError, fail, paths } from './lib/data.mjs';
+import { stopMariadb } from './lib/mariadb.mjs';
+import { isInterrupted, onInterrupt, recordPid, requireFreePorts, spawnDetached, stopRecorded } from './lib/procs.mjs';
+import {
+  API_ENTRY,
+  apiEnv,
+  apiService,
+  demoPorts,
+  fakeServices,
+  installTools,
+  migrateAndSeed,
+  mustRun,
+  prepareSystem,
+  rel,
+  startServices,
+} from './lib/services.mjs';
+import { test } from './lib/test-command.mjs';
+
+const DEMO_PASSWORD = 'rinkwright-demo';
+const DEMO_SIGN_INS = [
+  ['admin@rinkwright.test', 'platform admin'],
+  ['owner@ice-harbor.test', 'Ice Harbor, owner'],
+  ['manager@ice-harbor.test', 'Ice Harbor, manager'],
+  ['tech@ice-harbor.test', 'Ice Harbor, technician'],
+  ['league@ice-harbor.test', 'Ice Harbor, league manager'],
+  ['skater@ice-harbor.test', 'Ice Harbor, skater'],
+  ['manager@north-pond.test', 'North Pond Arena, manager'],
+  ['tech@north-pond.test', 'North Pond Arena, technician'],
+];
+const VITE_PORT = 5173;
+
+async function start() {
+  const ports = demoPorts();
+  await installTools();
+  const context = await prepareSystem({ ports });
+  await migrateAndSeed(context);
+  await mustRun('build', 'pnpm', ['build']);
+  if (!existsSync(API_ENTRY)) fail(`the build did not produce ${rel(API_ENTRY)}`);
+
+  // A previous start (or dev) holds the same ports.
+  await stopRecorded(paths.pids);
+  mkdirSync(paths.mail, { recursive: true });
+  const undo = onInterrupt(() => stopRecorded(paths.pids));
+  await startServices([...fakeServices(ports, paths.mail), apiService(context, ports)], paths.pids);
+  undo();
+
+  const width = Math.max(...DEMO_SIGN_INS.map(([email]) => email.length));
+  console.log(
+    [
+      '',
+      'Rinkwright is running.',
+      `  App:    http://127.0.0.1:${ports.api}`,
+      `  Inbox:  http://127.0.0.1:${ports.mailWeb}   (every e-mail the app sends lands here)`,
+      '',
+      `Demo sign-ins, all with the password ${DEMO_PASSWORD}:`,
+      ...DEMO_SIGN_INS.map(([email, role]) => `  ${email.padEnd(width)}  ${role}`),
+      '',
+      `Logs are in ${rel(paths.logs)}/. Stop everything with: npm run stop`,
+    ].join('\n'),
+  );
+}
+
+async function stop() {
+  await stopRecorded(paths.pids);
+  await stopMariadb();
+  console.log('Rinkwright is stopped.');
+}
+
+/** Waits for the first of the children to end and resolves with its exit code. */
+function firstExit(children) {
+  return new Promise((resolve) => {
+    for (const child of children) {
+      child.once('exit', (code) => resolve(code ?? 1));
+      child.once('error', () => resolve(1));
+    }
+  });
+}
+
+async function dev() {
+  const ports = demoPorts();
+  await installTools();
+  const context = await prepareSystem({ ports });
+  await migrateAndSeed(context);
+
+  await stopRecorded(paths.pids);
+  const taken = await requireFreePorts([
+    { label: 'API', port: ports.api, envVar: 'PORT' },
+    { label: 'Vite dev server', port: VITE_PORT },
+  ]);
+  if (taken.length > 0) fail(taken.join('\n'));
+  mkdirSync(paths.mail, { recursive: true });
+  onInterrupt(() => stopRecorded(paths.pids));
+  await startServices(fakeServices(ports, paths.mail), paths.pids);
+
+  // The SPA comes from Vite here, so the API must not serve a stale build of it.
+  const env = { ...apiEnv(context, ports), NODE_ENV: 'development', APP_URL: `http://127.0.0.1:${VITE_PORT}` };
+  delete env.WEB_DIST;
+  // Own process groups, so that Ctrl-C reaches only this script, which then stops everything in order.
+  const stdio = ['ignore', 'inherit', 'inherit'];
+  const api = spawnDetached('pnpm', ['exec', 'tsx', 'watch', 'apps/api/src/server.ts'], { env, stdio });
+  // --strictPort: the API trusts the origin on 5173 only, so Vite must not drift to another port.
+  const viteArgs = ['exec', 'vite', '--host', '127.0.0.1', '--port', String(VITE_PORT), '--strictPort'];
+  const web = spawnDetached('pnpm', viteArgs, { stdio });
+  for (const [name, child] of [['api-dev', api], ['web-dev', web]]) {
+    child.ref();
+    if (child.pid !== undefined) recordPid(paths.pids, name, child.pid);
+  }
+  console.log(
+    `\nDev servers: web http://127.0.0.1:${VITE_PORT} (API on ${ports.api}), ` +
+      `inbox http://127.0.0.1:${ports.mailWeb}. Ctrl-C stops them all.\n`,
+  );
+  const code = await firstExit([api, web]);
+  // Ctrl-C ends the dev servers too; the signal handler is already stopping everything and will exit.
+  if (isInterrupted()) return new Promise(() => {});
+  console.log(`\nA dev server ended (exit ${code}); stopping the rest`);
+  await stopRecorded(paths.pids);
+  return code;
+}
+
+const commands = { start, stop, dev, test };
+const name = process.argv[2] ?? '';
+const command = commands[name];
+if (!command) {
+  console.error(`usage: node scripts/bootstrap.mjs ${Object.keys(commands).join('|')}`);
+  process.exit(2);
+}
+try {
+  const code = await command();
+  process.exit(typeof code === 'number' ? code : 0);
+} catch (error) {
+  console.error(error instanceof BootstrapError ? `\n✗ ${error.message}` : error);
+  process.exit(1);
+}

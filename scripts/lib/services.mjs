@@ -1,0 +1,182 @@
+// What start, dev and test share: the common bootstrap, the ports, and the services they run.
+import { join, relative } from 'node:path';
+import { ROOT, ensureDataDirs, fail, loadSecrets, paths } from './data.mjs';
+import { CHROMIUM, MARIADB, ensurePnpm, ensureSystemPackages, installDependencies } from './install.mjs';
+import { databaseUrl, ensureMariadb, setupDatabase } from './mariadb.mjs';
+import { answers200, recordPid, requireFreePorts, run, spawnDetached, stopRecorded, tail, waitUntil } from './procs.mjs';
+
+export const WEB_DIST = join(ROOT, 'dist', 'web');
+export const API_ENTRY = join(ROOT, 'apps', 'api', 'dist', 'server.js');
+
+function envPort(name, fallback) {
+  const raw = process.env[name];
+  if (raw === undefined || raw === '') return fallback;
+  const port = Number(raw);
+  if (!Number.isInteger(port) || port < 1 || port > 65535) fail(`${name} must be a port number, not "${raw}"`);
+  return port;
+}
+
+/** The demo's ports (npm start, npm run dev), each overridable by the variable the app itself reads. */
+export function demoPorts() {
+  return {
+    db: envPort('DB_PORT', 3407),
+    smtp: envPort('SMTP_PORT', 1025),
+    mailWeb: envPort('MAIL_WEB_PORT', 1080),
+    stripe: envPort('STRIPE_FAKE_PORT', 12111),
+    api: envPort('PORT', 3000),
+  };
+}
+
+/** The test run's own ports, so that a running demo is left alone; the database server is shared. */
+export function testPorts() {
+  return { db: envPort('DB_PORT', 3407), smtp: 2025, mailWeb: 2080, stripe: 12112, api: 3100 };
+}
+
+export const rel = (file) => relative(ROOT, file);
+
+/** Runs a required step; a failure ends the command. */
+export async function mustRun(label, cmd, args, env) {
+  console.log(`* ${label}: ${cmd} ${args.join(' ')}`);
+  const code = await run(cmd, args, { env });
+  if (code !== 0) fail(`${label} failed (exit ${code}, see above)`);
+}
+
+export async function installTools() {
+  ensureDataDirs();
+  await ensurePnpm();
+  await installDependencies();
+}
+
+/**
+ * Everything the app needs from the machine: system packages, secrets and a database. `state.startedDb` is set as
+ * soon as a server is started, so that a caller can stop it even when a later step fails.
+ */
+export async function prepareSystem({ ports, browser = false }, state = {}) {
+  const external = process.env.DATABASE_URL;
+  await ensureSystemPackages([...(external ? [] : [MARIADB]), ...(browser ? [CHROMIUM] : [])]);
+  const secrets = loadSecrets();
+  const authSecret = process.env.BETTER_AUTH_SECRET || secrets.authSecret;
+  if (external) {
+    console.log('- using DATABASE_URL from the environment; no local MariaDB');
+    return { databaseUrl: external, authSecret };
+  }
+  const { startedHere } = await ensureMariadb({ port: ports.db });
+  state.startedDb = startedHere;
+  setupDatabase(secrets.dbPassword);
+  return { databaseUrl: databaseUrl(secrets.dbPassword, ports.db), authSecret };
+}
+
+export async function migrateAndSeed({ databaseUrl: url, authSecret }) {
+  const env = { DATABASE_URL: url, BETTER_AUTH_SECRET: authSecret };
+  await mustRun('migrations', 'pnpm', ['exec', 'tsx', 'packages/db/src/migrate.ts'], env);
+  await mustRun('demo data', 'pnpm', ['exec', 'tsx', 'packages/db/src/seed.ts'], env);
+}
+
+export function apiEnv({ databaseUrl: url, authSecret }, ports) {
+  return {
+    NODE_ENV: 'production',
+    HOST: '127.0.0.1',
+    PORT: String(ports.api),
+    APP_URL: `http://127.0.0.1:${ports.api}`,
+    DATABASE_URL: url,
+    BETTER_AUTH_SECRET: authSecret,
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: String(ports.smtp),
+    MAIL_INBOX_URL: `http://127.0.0.1:${ports.mailWeb}`,
+    STRIPE_API_BASE: `http://127.0.0.1:${ports.stripe}`,
+    WEB_DIST,
+  };
+}
+
+/** The mail and payment fakes; `logPrefix` keeps a test run's logs apart from the demo's. */
+export function fakeServices(ports, mailDir, logPrefix = '') {
+  return [
+    {
+      name: 'maildev',
+      label: 'mail fake',
+      log: `${logPrefix}maildev`,
+      ports: [
+        { label: 'mail fake SMTP', port: ports.smtp, envVar: 'SMTP_PORT' },
+        { label: 'mail fake inbox', port: ports.mailWeb, envVar: 'MAIL_WEB_PORT' },
+      ],
+      cmd: join(ROOT, 'node_modules', '.bin', 'maildev'),
+      // Both listeners default to all interfaces; the inbox shows every message, so keep it on loopback.
+      args: [
+        ...['--smtp', String(ports.smtp), '--ip', '127.0.0.1'],
+        ...['--web', String(ports.mailWeb), '--web-ip', '127.0.0.1'],
+        ...['--mail-directory', mailDir],
+      ],
+      health: `http://127.0.0.1:${ports.mailWeb}/api/healthz`,
+    },
+    {
+      name: 'stripe-fake',
+      label: 'payment fake',
+      log: `${logPrefix}stripe-fake`,
+      ports: [{ label: 'payment fake', port: ports.stripe, envVar: 'STRIPE_FAKE_PORT' }],
+      // Loading tsx as a hook keeps the server in one process, so the recorded pid is the server itself.
+      cmd: process.execPath,
+      args: ['--import', 'tsx', 'apps/stripe-fake/src/server.ts'],
+      env: { STRIPE_FAKE_HOST: '127.0.0.1', STRIPE_FAKE_PORT: String(ports.stripe) },
+      health: `http://127.0.0.1:${ports.stripe}/health`,
+    },
+  ];
+}
+
+export function apiService(context, ports) {
+  return {
+    name: 'api',
+    label: 'API',
+    log: 'api',
+    ports: [{ label: 'API', port: ports.api, envVar: 'PORT' }],
+    cmd: process.execPath,
+    args: [API_ENTRY],
+    env: apiEnv(context, ports),
+    health: `http://127.0.0.1:${ports.api}/api/health`,
+    timeoutMs: 60_000,
+  };
+}
+
+/**
+ * Starts services detached, records their pids as soon as they exist, and waits until each answers its health URL.
+ * On any failure the ones just started are stopped again and the error carries the tail of each failed log.
+ */
+export async function startServices(services, pidFile) {
+  const taken = await requireFreePorts(services.flatMap((service) => service.ports));
+  if (taken.length > 0) fail(taken.join('\n'));
+
+  const started = services.map((service) => {
+    const logFile = join(paths.logs, `${service.log}.log`);
+    const child = spawnDetached(service.cmd, service.args, { env: service.env, logFile });
+    if (child.pid !== undefined) recordPid(pidFile, service.name, child.pid);
+    return { ...service, child, logFile };
+  });
+  const results = await Promise.all(
+    started.map(async (service) => {
+      const timeoutMs = service.timeoutMs ?? 30_000;
+      const ok = await waitUntil(() => answers200(service.health), { timeoutMs, child: service.child });
+      return { service, ok, timeoutMs };
+    }),
+  );
+  const failed = results.filter((result) => !result.ok);
+  if (failed.length === 0) return;
+  await stopRecorded(
+    pidFile,
+    started.map((service) => service.name),
+  );
+  fail(
+    failed
+      .map(
+        ({ service, timeoutMs }) =>
+          `${service.label} ${outcome(service.child)} ${service.health} within ${timeoutMs / 1000} s; ` +
+          `last lines of ${rel(service.logFile)}:\n${tail(service.logFile)}`,
+      )
+      .join('\n\n'),
+  );
+}
+
+function outcome(child) {
+  if (child.pid === undefined) return 'could not be started, so nothing answered';
+  if (child.exitCode !== null) return `exited (code ${child.exitCode}) without answering`;
+  if (child.signalCode !== null) return `was killed (${child.signalCode}) without answering`;
+  return 'did not answer';
+}
