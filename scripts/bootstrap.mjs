@@ -69,12 +69,12 @@ async function stop() {
   console.log('Rinkwright is stopped.');
 }
 
-/** Waits for the first of the children to end and resolves with its exit code. */
+/** Waits for the first of the named children to end; resolves with its name and exit code. */
 function firstExit(children) {
   return new Promise((resolve) => {
-    for (const child of children) {
-      child.once('exit', (code) => resolve(code ?? 1));
-      child.once('error', () => resolve(1));
+    for (const [name, child] of Object.entries(children)) {
+      child.once('exit', (code, signal) => resolve({ name, code: code ?? 1, how: signal ?? `exit ${code}` }));
+      child.once('error', () => resolve({ name, code: 1, how: 'could not start' }));
     }
   });
 }
@@ -87,7 +87,7 @@ async function dev() {
 
   await stopRecorded(paths.pids);
   const taken = await requireFreePorts([
-    { label: 'API', port: ports.api, envVar: 'PORT' },
+    { label: 'API', port: ports.api, envVar: ports.vars.api },
     { label: 'Vite dev server', port: VITE_PORT },
   ]);
   if (taken.length > 0) fail(taken.join('\n'));
@@ -104,7 +104,8 @@ async function dev() {
   // --strictPort: the API trusts the origin on 5173 only, so Vite must not drift to another port.
   const viteArgs = ['exec', 'vite', '--host', '127.0.0.1', '--port', String(VITE_PORT), '--strictPort'];
   const web = spawnDetached('pnpm', viteArgs, { stdio });
-  for (const [name, child] of [['api-dev', api], ['web-dev', web]]) {
+  const servers = { 'api-dev': api, 'web-dev': web };
+  for (const [name, child] of Object.entries(servers)) {
     child.ref();
     if (child.pid !== undefined) recordPid(paths.pids, name, child.pid);
   }
@@ -112,12 +113,12 @@ async function dev() {
     `\nDev servers: web http://127.0.0.1:${VITE_PORT} (API on ${ports.api}), ` +
       `inbox http://127.0.0.1:${ports.mailWeb}. Ctrl-C stops them all.\n`,
   );
-  const code = await firstExit([api, web]);
+  const ended = await firstExit(servers);
   // Ctrl-C ends the dev servers too; the signal handler is already stopping everything and will exit.
   if (isInterrupted()) return new Promise(() => {});
-  console.log(`\nA dev server ended (exit ${code}); stopping the rest`);
+  console.log(`\n${ended.name} ended (${ended.how}); stopping the rest`);
   await stopRecorded(paths.pids);
-  return code;
+  return ended.code;
 }
 
 const commands = { start, stop, dev, test };

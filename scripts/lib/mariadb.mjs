@@ -20,8 +20,21 @@ function ping() {
 
 /** Runs SQL as root over the socket; the SQL goes through stdin so the password never shows in `ps`. */
 function sql(statements) {
-  const result = spawnSync('mariadb', [...rootArgs(), '--batch'], { input: statements, encoding: 'utf8' });
+  const result = spawnSync('mariadb', [...rootArgs(), '--batch', '--skip-column-names'], {
+    input: statements,
+    encoding: 'utf8',
+  });
   if (result.status !== 0) fail(`MariaDB setup failed: ${(result.stderr || result.error?.message || '').trim()}`);
+  return result.stdout.trim();
+}
+
+/** A server that was already running keeps the port it started with, whatever DB_PORT says now. */
+function runningOn(port) {
+  const actual = Number(sql('SELECT @@port;'));
+  if (actual !== port) {
+    console.log(`- MariaDB already runs on port ${actual}; DB_PORT=${port} applies after "npm run stop"`);
+  }
+  return actual;
 }
 
 const quote = (value) => `'${String(value).replaceAll('\\', '\\\\').replaceAll("'", "\\'")}'`;
@@ -70,18 +83,18 @@ function initDataDir() {
 }
 
 /**
- * Makes sure our server answers, starting it when needed. Resolves { startedHere } so that a test run can stop
- * only a server it started itself.
+ * Makes sure our server answers, starting it when needed. Resolves { startedHere, port }: a test run stops only a
+ * server it started itself.
  */
 export async function ensureMariadb({ port }) {
   // A Unix socket path longer than this is rejected by the kernel, with a confusing error from mariadbd.
   if (paths.mariadbSock.length > 107) fail(`the repository path is too long for a Unix socket: ${paths.mariadbSock}`);
   initDataDir();
-  if (ping()) return { startedHere: false };
+  if (ping()) return { startedHere: false, port: runningOn(port) };
 
   if (serverPid() !== undefined) {
     console.log('- MariaDB is already starting; waiting for it');
-    if (await waitUntil(ping, { timeoutMs: READY_TIMEOUT_MS })) return { startedHere: false };
+    if (await waitUntil(ping, { timeoutMs: READY_TIMEOUT_MS })) return { startedHere: false, port: runningOn(port) };
     fail(`mariadbd (pid ${serverPid()}) runs but does not answer; see ${paths.mariadbLog} or run "npm run stop"`);
   }
   // Nothing of ours runs, so these are leftovers of a crash or a killed machine.
@@ -116,18 +129,22 @@ export async function ensureMariadb({ port }) {
   if (!(await waitUntil(ping, { timeoutMs: READY_TIMEOUT_MS, child }))) {
     fail(`MariaDB did not become ready within 30 s:\n${tail(paths.mariadbLog)}`);
   }
-  return { startedHere: true };
+  return { startedHere: true, port };
 }
 
 /** Idempotent: leaves only the socket root, and the app user with rights on every rinkwright* database. */
 export function setupDatabase(password) {
   const host = hostname().toLowerCase();
-  const tcpAccounts = ['127.0.0.1', '::1', ...(host && host !== 'localhost' ? [host] : [])];
-  const anonymous = ['localhost', ...(host && host !== 'localhost' ? [host] : [])];
+  // The install names root and anonymous accounts after the host too; 'root'@'localhost' is the socket root.
+  const named = host && host !== 'localhost' ? [host] : [];
+  const dropped = [
+    ...['127.0.0.1', '::1', ...named].map((h) => `'root'@${quote(h)}`),
+    ...['localhost', ...named].map((h) => `''@${quote(h)}`),
+  ];
   const account = `${quote(APP_USER)}@'127.0.0.1'`;
   sql(
     [
-      `DROP USER IF EXISTS ${[...tcpAccounts.map((h) => `'root'@${quote(h)}`), ...anonymous.map((h) => `''@${quote(h)}`)].join(', ')};`,
+      `DROP USER IF EXISTS ${dropped.join(', ')};`,
       `CREATE USER IF NOT EXISTS ${account} IDENTIFIED BY ${quote(password)};`,
       `ALTER USER ${account} IDENTIFIED BY ${quote(password)};`,
       `CREATE DATABASE IF NOT EXISTS \`${APP_DATABASE}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci;`,

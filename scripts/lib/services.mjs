@@ -3,7 +3,16 @@ import { join, relative } from 'node:path';
 import { ROOT, ensureDataDirs, fail, loadSecrets, paths } from './data.mjs';
 import { CHROMIUM, MARIADB, ensurePnpm, ensureSystemPackages, installDependencies } from './install.mjs';
 import { databaseUrl, ensureMariadb, setupDatabase } from './mariadb.mjs';
-import { answers200, recordPid, requireFreePorts, run, spawnDetached, stopRecorded, tail, waitUntil } from './procs.mjs';
+import {
+  answers200,
+  recordPid,
+  requireFreePorts,
+  run,
+  spawnDetached,
+  stopRecorded,
+  tail,
+  waitUntil,
+} from './procs.mjs';
 
 export const WEB_DIST = join(ROOT, 'dist', 'web');
 export const API_ENTRY = join(ROOT, 'apps', 'api', 'dist', 'server.js');
@@ -16,21 +25,30 @@ function envPort(name, fallback) {
   return port;
 }
 
-/** The demo's ports (npm start, npm run dev), each overridable by the variable the app itself reads. */
-export function demoPorts() {
-  return {
-    db: envPort('DB_PORT', 3407),
-    smtp: envPort('SMTP_PORT', 1025),
-    mailWeb: envPort('MAIL_WEB_PORT', 1080),
-    stripe: envPort('STRIPE_FAKE_PORT', 12111),
-    api: envPort('PORT', 3000),
-  };
+function portsFrom(vars, defaults) {
+  const ports = Object.fromEntries(Object.entries(defaults).map(([key, port]) => [key, envPort(vars[key], port)]));
+  return { ...ports, vars };
 }
 
+/** The demo's ports (npm start, npm run dev), each overridable by the variable the app itself reads. */
+export const demoPorts = () =>
+  portsFrom(
+    { db: 'DB_PORT', smtp: 'SMTP_PORT', mailWeb: 'MAIL_WEB_PORT', stripe: 'STRIPE_FAKE_PORT', api: 'PORT' },
+    { db: 3407, smtp: 1025, mailWeb: 1080, stripe: 12111, api: 3000 },
+  );
+
 /** The test run's own ports, so that a running demo is left alone; the database server is shared. */
-export function testPorts() {
-  return { db: envPort('DB_PORT', 3407), smtp: 2025, mailWeb: 2080, stripe: 12112, api: 3100 };
-}
+export const testPorts = () =>
+  portsFrom(
+    {
+      db: 'DB_PORT',
+      smtp: 'TEST_SMTP_PORT',
+      mailWeb: 'TEST_MAIL_WEB_PORT',
+      stripe: 'TEST_STRIPE_FAKE_PORT',
+      api: 'E2E_PORT',
+    },
+    { db: 3407, smtp: 2025, mailWeb: 2080, stripe: 12112, api: 3100 },
+  );
 
 export const rel = (file) => relative(ROOT, file);
 
@@ -60,10 +78,10 @@ export async function prepareSystem({ ports, browser = false }, state = {}) {
     console.log('- using DATABASE_URL from the environment; no local MariaDB');
     return { databaseUrl: external, authSecret };
   }
-  const { startedHere } = await ensureMariadb({ port: ports.db });
+  const { startedHere, port } = await ensureMariadb({ port: ports.db });
   state.startedDb = startedHere;
   setupDatabase(secrets.dbPassword);
-  return { databaseUrl: databaseUrl(secrets.dbPassword, ports.db), authSecret };
+  return { databaseUrl: databaseUrl(secrets.dbPassword, port), authSecret };
 }
 
 export async function migrateAndSeed({ databaseUrl: url, authSecret }) {
@@ -96,8 +114,8 @@ export function fakeServices(ports, mailDir, logPrefix = '') {
       label: 'mail fake',
       log: `${logPrefix}maildev`,
       ports: [
-        { label: 'mail fake SMTP', port: ports.smtp, envVar: 'SMTP_PORT' },
-        { label: 'mail fake inbox', port: ports.mailWeb, envVar: 'MAIL_WEB_PORT' },
+        { label: 'mail fake SMTP', port: ports.smtp, envVar: ports.vars.smtp },
+        { label: 'mail fake inbox', port: ports.mailWeb, envVar: ports.vars.mailWeb },
       ],
       cmd: join(ROOT, 'node_modules', '.bin', 'maildev'),
       // Both listeners default to all interfaces; the inbox shows every message, so keep it on loopback.
@@ -112,7 +130,7 @@ export function fakeServices(ports, mailDir, logPrefix = '') {
       name: 'stripe-fake',
       label: 'payment fake',
       log: `${logPrefix}stripe-fake`,
-      ports: [{ label: 'payment fake', port: ports.stripe, envVar: 'STRIPE_FAKE_PORT' }],
+      ports: [{ label: 'payment fake', port: ports.stripe, envVar: ports.vars.stripe }],
       // Loading tsx as a hook keeps the server in one process, so the recorded pid is the server itself.
       cmd: process.execPath,
       args: ['--import', 'tsx', 'apps/stripe-fake/src/server.ts'],
@@ -127,7 +145,7 @@ export function apiService(context, ports) {
     name: 'api',
     label: 'API',
     log: 'api',
-    ports: [{ label: 'API', port: ports.api, envVar: 'PORT' }],
+    ports: [{ label: 'API', port: ports.api, envVar: ports.vars.api }],
     cmd: process.execPath,
     args: [API_ENTRY],
     env: apiEnv(context, ports),

@@ -41,6 +41,12 @@ async function vitestCheck(project, env) {
   return { passed, failed, note };
 }
 
+/** The first line of an error, short enough for the table; the whole message is printed where it happened. */
+function brief(message) {
+  const first = message.split('\n')[0];
+  return first.length > 72 ? `${first.slice(0, 71)}…` : first;
+}
+
 function printSummary(rows) {
   const table = [['step', 'result', 'passed', 'failed', 'time', ''], ...rows.map((row) => row.cells)];
   const widths = table[0].map((_, i) => Math.max(...table.map((cells) => cells[i].length)));
@@ -74,7 +80,7 @@ export async function test() {
       outcome = (await fn()) ?? {};
     } catch (error) {
       console.error(error instanceof BootstrapError ? `\n✗ ${error.message}` : error);
-      outcome = { failed: 1, note: error instanceof BootstrapError ? error.message.split('\n')[0] : 'crashed' };
+      outcome = { failed: 1, note: error instanceof BootstrapError ? brief(error.message) : 'crashed' };
     }
     const ok = !outcome.failed;
     if (!(setup && ok)) record(name, outcome, (Date.now() - began) / 1000);
@@ -115,7 +121,7 @@ export async function test() {
       { setup: true },
     );
     if (!(await portFree(ports.api))) {
-      console.warn(`! port ${ports.api} (the e2e API) is in use; the e2e tests will not be able to start their API`);
+      console.warn(`! port ${ports.api} (E2E_PORT) is in use; the e2e tests cannot start their API there`);
     }
 
     await check('typecheck', () => commandCheck('pnpm', ['typecheck']));

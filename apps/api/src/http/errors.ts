@@ -1,5 +1,5 @@
 import type { ErrorCode } from '@rinkwright/core';
-import { z } from 'zod';
+import { type z } from 'zod';
 
 export const STATUS_OF: Record<ErrorCode, number> = {
   bad_request: 400,

@@ -22,6 +22,7 @@ export function MembersPanel({ rink }: { rink: RinkSummary }) {
   const mayEdit = can(rink, 'member', 'update');
   const mayRemove = can(rink, 'member', 'delete');
   const roles = assignableRoles(rink.role);
+  const myUserId = me.data?.user.id;
 
   const columns = useMemo<ColumnDef<MemberRow, unknown>[]>(() => {
     const report = (error: unknown) => setProblem(error instanceof ApiError ? error.message : 'That did not work. Try again.');
@@ -64,7 +65,7 @@ export function MembersPanel({ rink }: { rink: RinkSummary }) {
         enableSorting: false,
         cell: ({ row }) => {
           const m = row.original;
-          if (!mayRemove || !editable(m) || m.userId === me.data?.user.id) return null;
+          if (!mayRemove || !editable(m) || m.userId === myUserId) return null;
           return (
             <Button
               tone="danger"
@@ -81,7 +82,7 @@ export function MembersPanel({ rink }: { rink: RinkSummary }) {
         },
       },
     ];
-  }, [mayEdit, mayRemove, roles, rink, update, remove, me.data?.user.id]);
+  }, [mayEdit, mayRemove, roles, rink, update, remove, myUserId]);
 
   return (
     <Card title="Staff">

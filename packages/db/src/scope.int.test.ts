@@ -1,0 +1,157 @@
+import { randomUUID } from 'node:crypto';
+import { asc, eq } from 'drizzle-orm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { connectDb, currentDb, disconnectDb } from './client';
+import { dbEnv } from './env';
+import { addMember, createCustomer, createRink, createUser } from './factories';
+import { customer, member, rink, user } from './schema/index';
+import { scoped } from './scope';
+
+// Two rinks that share one person (staff at both), each with customers: every scope operation of rink A
+// must act on A's rows alone, even when its condition names B's rows.
+
+beforeAll(() => {
+  connectDb(dbEnv.DATABASE_URL, { connectionLimit: 4 });
+});
+afterAll(() => disconnectDb());
+
+async function twoRinks() {
+  const db = currentDb();
+  const a = await createRink(db, { name: 'Ice Harbor' });
+  const b = await createRink(db, { name: 'North Pond Arena' });
+  const shared = await createUser(db, { name: 'Shared Sharpener' });
+  const memberA = await addMember(db, a.id, shared.id, 'technician');
+  const memberB = await addMember(db, b.id, shared.id, 'manager');
+  const customerA = await createCustomer(db, a.id, { name: 'Skater at A', userId: shared.id });
+  const customerB = await createCustomer(db, b.id, { name: 'Skater at B', userId: shared.id });
+  const secondB = await createCustomer(db, b.id, { name: 'Another at B' });
+  return { a, b, shared, memberA, memberB, customerA, customerB, secondB };
+}
+
+const customersOf = (tenantId: string) =>
+  currentDb().select().from(customer).where(eq(customer.tenantId, tenantId)).orderBy(asc(customer.id));
+
+describe('scoped(tenantId)', () => {
+  it('find returns only the tenant rows, whatever the condition', async () => {
+    const w = await twoRinks();
+    const scope = scoped(w.a.id);
+
+    expect((await scope.find(customer)).map((c) => c.id)).toEqual([w.customerA.id]);
+    expect(await scope.find(customer, { where: eq(customer.id, w.customerB.id) })).toEqual([]);
+    expect((await scoped(w.b.id).find(customer, { orderBy: asc(customer.name) })).map((c) => c.name)).toEqual(['Another at B', 'Skater at B']);
+  });
+
+  it('findOne does not find another tenant row by its id', async () => {
+    const w = await twoRinks();
+
+    expect(await scoped(w.a.id).findOne(customer, eq(customer.id, w.customerB.id))).toBeUndefined();
+    expect((await scoped(w.b.id).findOne(customer, eq(customer.id, w.customerB.id)))?.name).toBe('Skater at B');
+  });
+
+  it('count counts the tenant rows only', async () => {
+    const w = await twoRinks();
+
+    expect(await scoped(w.a.id).count(customer)).toBe(1);
+    expect(await scoped(w.b.id).count(customer)).toBe(2);
+    expect(await scoped(w.a.id).count(member, eq(member.userId, w.shared.id))).toBe(1);
+  });
+
+  it('update leaves another tenant row alone', async () => {
+    const w = await twoRinks();
+    const before = await customersOf(w.b.id);
+
+    const changed = await scoped(w.a.id).update(customer, { name: 'Renamed' }, eq(customer.id, w.customerB.id));
+
+    expect(changed).toBe(0);
+    expect(await customersOf(w.b.id)).toEqual(before);
+    expect(await scoped(w.a.id).update(customer, { name: 'Renamed' }, eq(customer.id, w.customerA.id))).toBe(1);
+  });
+
+  it('remove does not delete another tenant row', async () => {
+    const w = await twoRinks();
+
+    expect(await scoped(w.a.id).remove(customer, eq(customer.userId, w.shared.id))).toBe(1);
+
+    expect((await customersOf(w.b.id)).map((c) => c.id).sort()).toEqual([w.customerB.id, w.secondB.id].sort());
+    expect(await customersOf(w.a.id)).toEqual([]);
+  });
+
+  it('findJoined filters the main table and every joined tenant table', async () => {
+    const w = await twoRinks();
+
+    // The shared person is a member of both rinks: joining customer to member on user id alone would pair
+    // A's customer with B's membership too.
+    const rows = await scoped(w.a.id).findJoined(customer, {
+      fields: { customerId: customer.id, memberId: member.id, role: member.role, email: user.email },
+      joins: [
+        { table: member, on: eq(member.userId, customer.userId) },
+        { table: user, on: eq(user.id, customer.userId) },
+      ],
+    });
+
+    expect(rows).toEqual([{ customerId: w.customerA.id, memberId: w.memberA.id, role: 'technician', email: w.shared.email }]);
+  });
+
+  it('insert sets the tenant even when the values name another one', async () => {
+    const w = await twoRinks();
+    const id = randomUUID();
+    const bulk = [randomUUID(), randomUUID()];
+
+    await scoped(w.a.id).insert(customer, { id, tenantId: w.b.id, name: 'Smuggled', memberCode: 'SMUG01' });
+    await scoped(w.a.id).insert(
+      customer,
+      bulk.map((bulkId, i) => ({ id: bulkId, tenantId: w.b.id, name: `Bulk ${i}`, memberCode: `BULK0${i}` })),
+    );
+    const newcomer = await createUser(currentDb(), {});
+    await scoped(w.a.id).insert(member, { id: randomUUID(), organizationId: w.b.id, userId: newcomer.id, role: 'technician', createdAt: new Date() });
+
+    const landed = await currentDb().select({ tenantId: customer.tenantId }).from(customer).where(eq(customer.id, id));
+    expect(landed).toEqual([{ tenantId: w.a.id }]);
+    expect((await customersOf(w.a.id)).map((c) => c.id).sort()).toEqual([w.customerA.id, id, ...bulk].sort());
+    expect(await customersOf(w.b.id)).toHaveLength(2);
+    expect(await scoped(w.b.id).count(member)).toBe(1);
+    expect(await scoped(w.a.id).count(member)).toBe(2);
+  });
+
+  it('update refuses to change tenant_id, whatever the column property is called', async () => {
+    const w = await twoRinks();
+
+    await expect(scoped(w.a.id).update(customer, { tenantId: w.b.id }, eq(customer.id, w.customerA.id))).rejects.toThrow(
+      'tenant_id cannot be changed',
+    );
+    await expect(scoped(w.a.id).update(member, { organizationId: w.b.id }, eq(member.id, w.memberA.id))).rejects.toThrow(
+      'tenant_id cannot be changed',
+    );
+
+    expect((await customersOf(w.a.id)).map((c) => c.id)).toEqual([w.customerA.id]);
+    expect(await scoped(w.a.id).count(member)).toBe(1);
+  });
+
+  it('refuses a global table, so no read can drop the tenant filter by accident', async () => {
+    const w = await twoRinks();
+
+    await expect(scoped(w.a.id).find(user)).rejects.toThrow('user is not a tenant table');
+  });
+
+  it('rink() and updateRink() touch only the rink of the scope', async () => {
+    const w = await twoRinks();
+
+    await scoped(w.a.id).updateRink({ name: 'Ice Harbor Renamed' });
+
+    expect((await scoped(w.a.id).rink())?.name).toBe('Ice Harbor Renamed');
+    const [rinkB] = await currentDb().select().from(rink).where(eq(rink.id, w.b.id));
+    expect(rinkB?.name).toBe('North Pond Arena');
+  });
+
+  it('a scope bound to a transaction keeps its filter', async () => {
+    const w = await twoRinks();
+
+    const seen = await scoped(w.a.id).transaction(async (tx) => {
+      await tx.update(customer, { name: 'In transaction' }, eq(customer.id, w.customerB.id));
+      return tx.find(customer);
+    });
+
+    expect(seen.map((c) => c.id)).toEqual([w.customerA.id]);
+    expect((await customersOf(w.b.id)).map((c) => c.name).sort()).toEqual(['Another at B', 'Skater at B']);
+  });
+});

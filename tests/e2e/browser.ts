@@ -1,0 +1,53 @@
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import path from 'node:path';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { expect, inject } from 'vitest';
+
+// Debian's Chromium, driven by playwright-core; never a downloaded browser. A fresh HOME per run because
+// Chromium writes under it.
+export async function launchBrowser(): Promise<Browser> {
+  const home = mkdtempSync(path.join(tmpdir(), 'rinkwright-chromium-'));
+  return chromium.launch({
+    executablePath: inject('chromiumPath'),
+    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
+    env: { ...process.env, HOME: home },
+  });
+}
+
+export interface Session {
+  context: BrowserContext;
+  page: Page;
+  /** Uncaught errors and console errors seen so far (failed loads of answered 4xx requests excepted). */
+  problems: string[];
+  shot(name: string): Promise<void>;
+}
+
+/** A new browser profile (its own cookies) at tablet size, with errors collected so a test can fail on them. */
+export async function openSession(browser: Browser, label: string): Promise<Session> {
+  const context = await browser.newContext({ baseURL: inject('baseUrl'), viewport: { width: 1180, height: 820 } });
+  const page = await context.newPage();
+  const problems: string[] = [];
+  page.on('pageerror', (error) => problems.push(`page error: ${error.message}`));
+  page.on('console', (message) => {
+    // The browser logs every 4xx answer as a failed resource; the app expects some (401 before sign-in, 404 tests).
+    if (message.type() === 'error' && !/Failed to load resource: the server responded with a status of 4\d\d/.test(message.text())) {
+      problems.push(`console error: ${message.text()}`);
+    }
+  });
+  let n = 0;
+  return {
+    context,
+    page,
+    problems,
+    async shot(name) {
+      n += 1;
+      await page.waitForLoadState('networkidle');
+      await page.screenshot({ path: path.join(inject('artifacts'), 'screenshots', `${label}-${String(n).padStart(2, '0')}-${name}.png`), fullPage: true });
+    },
+  };
+}
+
+export function expectNoProblems(session: Session): void {
+  expect(session.problems).toEqual([]);
+}

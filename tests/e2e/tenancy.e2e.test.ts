@@ -1,0 +1,60 @@
+import type { Browser } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { expectNoProblems, launchBrowser, openSession, type Session } from './browser';
+
+// Demo sign-ins (seeded by the e2e set-up from the same seed as `npm start`).
+const PASSWORD = 'rinkwright-demo';
+
+async function signIn(session: Session, email: string) {
+  const { page } = session;
+  await page.goto('/sign-in');
+  await page.getByLabel('E-mail').fill(email);
+  await page.getByLabel('Password').fill(PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+}
+
+describe('one rink never sees another', () => {
+  let browser: Browser;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser.close();
+  });
+
+  it("shows a manager of one rink the other rink's pages as not found", async () => {
+    const session = await openSession(browser, 'north-pond-manager');
+    const { page } = session;
+    await signIn(session, 'manager@north-pond.test');
+    await page.waitForURL('**/rinks/north-pond-arena');
+    await page.getByRole('heading', { name: 'North Pond Arena' }).waitFor();
+    await session.shot('own-rink');
+
+    for (const path of ['/rinks/ice-harbor', '/rinks/ice-harbor/staff', '/rinks/ice-harbor/settings']) {
+      await page.goto(path);
+      await page.getByRole('heading', { name: 'We could not find that page' }).waitFor();
+      expect(await page.getByText('Ice Harbor').count()).toBe(0);
+    }
+    await session.shot('other-rink-not-found');
+    expectNoProblems(session);
+    await session.context.close();
+  });
+
+  it('gives a manager the staff and settings pages', async () => {
+    const session = await openSession(browser, 'ice-harbor-manager');
+    const { page } = session;
+    await signIn(session, 'manager@ice-harbor.test');
+    await page.waitForURL('**/rinks/ice-harbor');
+    const sections = page.getByRole('navigation', { name: 'Ice Harbor sections' });
+    await sections.waitFor();
+    expect(await sections.getByRole('link').allTextContents()).toEqual(['Overview', 'Staff', 'Settings']);
+    await sections.getByRole('link', { name: 'Staff' }).click();
+    await page.getByRole('cell', { name: 'tech@ice-harbor.test', exact: true }).waitFor();
+    await session.shot('staff');
+    await sections.getByRole('link', { name: 'Settings' }).click();
+    await page.getByLabel('Rink name').waitFor();
+    await session.shot('settings');
+    expectNoProblems(session);
+    await session.context.close();
+  });
+});
