@@ -43,8 +43,9 @@ async function start() {
   // A previous start (or dev) holds the same ports.
   await stopRecorded(paths.pids);
   mkdirSync(paths.mail, { recursive: true });
-  const undo = onInterrupt(() => stopRecorded(paths.pids));
-  await startServices([...fakeServices(ports, paths.mail), apiService(context, ports)], paths.pids);
+  const owned = [];
+  const undo = onInterrupt(() => stopRecorded(paths.pids, owned));
+  await startServices([...fakeServices(ports, paths.mail), apiService(context, ports)], paths.pids, owned);
   undo();
 
   const width = Math.max(...DEMO_SIGN_INS.map(([email]) => email.length));
@@ -92,8 +93,10 @@ async function dev() {
   ]);
   if (taken.length > 0) fail(taken.join('\n'));
   mkdirSync(paths.mail, { recursive: true });
-  onInterrupt(() => stopRecorded(paths.pids));
-  await startServices(fakeServices(ports, paths.mail), paths.pids);
+  // Only what this dev session started: a later `npm start` may already have replaced it.
+  const owned = [];
+  onInterrupt(() => stopRecorded(paths.pids, owned));
+  await startServices(fakeServices(ports, paths.mail), paths.pids, owned);
 
   // The SPA comes from Vite here, so the API must not serve a stale build of it.
   const env = { ...apiEnv(context, ports), NODE_ENV: 'development', APP_URL: `http://127.0.0.1:${VITE_PORT}` };
@@ -107,7 +110,10 @@ async function dev() {
   const servers = { 'api-dev': api, 'web-dev': web };
   for (const [name, child] of Object.entries(servers)) {
     child.ref();
-    if (child.pid !== undefined) recordPid(paths.pids, name, child.pid);
+    if (child.pid !== undefined) {
+      recordPid(paths.pids, name, child.pid);
+      owned.push(child.pid);
+    }
   }
   console.log(
     `\nDev servers: web http://127.0.0.1:${VITE_PORT} (API on ${ports.api}), ` +
@@ -117,7 +123,7 @@ async function dev() {
   // Ctrl-C ends the dev servers too; the signal handler is already stopping everything and will exit.
   if (isInterrupted()) return new Promise(() => {});
   console.log(`\n${ended.name} ended (${ended.how}); stopping the rest`);
-  await stopRecorded(paths.pids);
+  await stopRecorded(paths.pids, owned);
   return ended.code;
 }
 

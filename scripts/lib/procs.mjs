@@ -137,10 +137,12 @@ function startedHere(pid) {
   }
 }
 
-/** Stops the groups recorded in a pid file (all of them, or only the named ones) and forgets them. */
-export async function stopRecorded(file, names) {
-  const procs = readPids(file);
-  const chosen = Object.entries(procs).filter(([name]) => !names || names.includes(name));
+/**
+ * Stops the groups recorded in a pid file and forgets them: all of them, or only those whose pid is in `only`
+ * (what one command started itself, so that it never stops what a later command started).
+ */
+export async function stopRecorded(file, only) {
+  const chosen = Object.entries(readPids(file)).filter(([, pid]) => !only || only.includes(pid));
   await Promise.all(
     chosen.map(async ([name, pid]) => {
       if (groupAlive(pid) && startedHere(pid)) {
@@ -150,7 +152,7 @@ export async function stopRecorded(file, names) {
     }),
   );
   const remaining = readPids(file);
-  for (const [name] of chosen) delete remaining[name];
+  for (const [name, pid] of chosen) if (remaining[name] === pid) delete remaining[name];
   writePids(file, remaining);
 }
 

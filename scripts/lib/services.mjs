@@ -155,17 +155,21 @@ export function apiService(context, ports) {
 }
 
 /**
- * Starts services detached, records their pids as soon as they exist, and waits until each answers its health URL.
- * On any failure the ones just started are stopped again and the error carries the tail of each failed log.
+ * Starts services detached, records their pids (in the file, and in `owned` for the caller) as soon as they exist,
+ * and waits until each answers its health URL. On any failure the ones just started are stopped again and the error
+ * carries the tail of each failed log.
  */
-export async function startServices(services, pidFile) {
+export async function startServices(services, pidFile, owned = []) {
   const taken = await requireFreePorts(services.flatMap((service) => service.ports));
   if (taken.length > 0) fail(taken.join('\n'));
 
   const started = services.map((service) => {
     const logFile = join(paths.logs, `${service.log}.log`);
     const child = spawnDetached(service.cmd, service.args, { env: service.env, logFile });
-    if (child.pid !== undefined) recordPid(pidFile, service.name, child.pid);
+    if (child.pid !== undefined) {
+      recordPid(pidFile, service.name, child.pid);
+      owned.push(child.pid);
+    }
     return { ...service, child, logFile };
   });
   const results = await Promise.all(
@@ -179,22 +183,17 @@ export async function startServices(services, pidFile) {
   if (failed.length === 0) return;
   await stopRecorded(
     pidFile,
-    started.map((service) => service.name),
+    started.map((service) => service.child.pid),
   );
-  fail(
-    failed
-      .map(
-        ({ service, timeoutMs }) =>
-          `${service.label} ${outcome(service.child)} ${service.health} within ${timeoutMs / 1000} s; ` +
-          `last lines of ${rel(service.logFile)}:\n${tail(service.logFile)}`,
-      )
-      .join('\n\n'),
-  );
+  fail(failed.map(({ service, timeoutMs }) => describeFailure(service, timeoutMs)).join('\n\n'));
 }
 
-function outcome(child) {
-  if (child.pid === undefined) return 'could not be started, so nothing answered';
-  if (child.exitCode !== null) return `exited (code ${child.exitCode}) without answering`;
-  if (child.signalCode !== null) return `was killed (${child.signalCode}) without answering`;
-  return 'did not answer';
+function describeFailure({ label, child, health, logFile }, timeoutMs) {
+  const what =
+    child.pid === undefined
+      ? 'could not be started'
+      : child.exitCode !== null || child.signalCode !== null
+        ? `ended (${child.signalCode ?? `exit ${child.exitCode}`}) before answering ${health}`
+        : `did not answer ${health} within ${timeoutMs / 1000} s`;
+  return `${label} ${what}; last lines of ${rel(logFile)}:\n${tail(logFile)}`;
 }

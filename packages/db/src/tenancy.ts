@@ -32,6 +32,8 @@ export function checkTenancy(tables: MySqlTable[]): string[] {
       ...config.indexes.map((i) => ({ name: i.config.name, first: columnName(i.config.columns[0]) })),
       ...config.uniqueConstraints.map((u) => ({ name: u.getName() ?? 'unique', first: u.columns[0]?.name })),
       ...config.primaryKeys.map((p) => ({ name: p.getName(), first: p.columns[0]?.name })),
+      // A column-level unique spans every rink: one rink could learn another's values from a duplicate-key error.
+      ...config.columns.filter((c) => c.isUnique).map((c) => ({ name: c.uniqueName ?? `${c.name} unique`, first: c.name })),
     ];
     if (!leading.some((i) => i.first === 'tenant_id')) problems.push(`${config.name}: no index leads with tenant_id`);
     for (const i of leading) {

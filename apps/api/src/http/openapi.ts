@@ -40,7 +40,7 @@ export function buildOpenApi(routes: Route[], serverUrl: string) {
   }
   return {
     openapi: '3.1.0',
-    info: { title: 'Rinkwright API', version: '1.0.0', description: 'Rink staff, counter and billing API. Sign in through /api/auth (better-auth) to get the session cookie.' },
+    info: { title: 'Rinkwright API', version: '1.0.0', description: 'The API behind the Rinkwright app. Sign in through /api/auth (better-auth) to get the session cookie; writes must carry an Origin this server trusts.' },
     servers: [{ url: serverUrl }],
     paths,
   };
