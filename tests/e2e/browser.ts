@@ -1,17 +1,13 @@
-import { mkdtempSync } from 'node:fs';
-import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
 import { expect, inject } from 'vitest';
 
-// Debian's Chromium, driven by playwright-core; never a downloaded browser. A fresh HOME per run because
-// Chromium writes under it.
+// Debian's Chromium, driven by playwright-core; never a downloaded browser.
 export async function launchBrowser(): Promise<Browser> {
-  const home = mkdtempSync(path.join(tmpdir(), 'rinkwright-chromium-'));
   return chromium.launch({
     executablePath: inject('chromiumPath'),
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
-    env: { ...process.env, HOME: home },
+    env: inject('browserEnv'),
   });
 }
 

@@ -1,5 +1,6 @@
 import { spawn, type ChildProcess } from 'node:child_process';
-import { mkdirSync } from 'node:fs';
+import { mkdirSync, mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
 import path from 'node:path';
 import type { TestProject } from 'vitest/node';
 import { z } from 'zod';
@@ -12,6 +13,7 @@ declare module 'vitest' {
     baseUrl: string;
     chromiumPath: string;
     artifacts: string;
+    browserEnv: Record<string, string>;
   }
 }
 
@@ -63,6 +65,9 @@ export default async function setup(project: TestProject) {
   project.provide('baseUrl', baseUrl);
   project.provide('chromiumPath', settings.CHROMIUM_PATH);
   project.provide('artifacts', artifacts);
+  // Chromium writes under HOME: give it a fresh one.
+  const home = mkdtempSync(path.join(tmpdir(), 'rinkwright-chromium-'));
+  project.provide('browserEnv', { ...(process.env as Record<string, string>), HOME: home });
 
   return async () => {
     server.kill('SIGTERM');

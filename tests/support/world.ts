@@ -17,9 +17,10 @@ export interface Person {
   password: string;
 }
 
-export async function createPerson(label: string, options: { verified?: boolean; email?: string } = {}): Promise<Person> {
+/** A verified account that can sign in with PASSWORD. */
+export async function createPerson(label: string, options: { email?: string } = {}): Promise<Person> {
   const email = options.email ?? uniqueEmail(label);
-  const made = await createUser(currentDb(), { email, name: `Test ${label}`, password: PASSWORD, verified: options.verified ?? true });
+  const made = await createUser(currentDb(), { email, name: `Test ${label}`, password: PASSWORD, verified: true });
   return { ...made, password: PASSWORD };
 }
 
@@ -35,7 +36,8 @@ export interface RinkWorld {
   staff: Record<StaffRole, Staffer>;
 }
 
-async function addStaffer(rink: { id: string; slug: string }, role: StaffRole, label: string = role): Promise<Staffer> {
+/** A new verified person who is a member of the rink with this role. */
+export async function addStaffer(rink: { id: string; slug: string }, role: StaffRole, label: string = role): Promise<Staffer> {
   const person = await createPerson(`${rink.slug}-${label}`);
   const membership = await addMember(currentDb(), rink.id, person.id, role);
   return { ...person, memberId: membership.id, role };
@@ -51,11 +53,6 @@ export async function createRinkWithStaff(name: string): Promise<RinkWorld> {
     league_manager: await addStaffer(made, 'league_manager'),
   };
   return { id: made.id, slug: made.slug, name: made.name, staff };
-}
-
-/** One more member, for tests that need a second person of a role. */
-export function addStafferTo(rink: RinkWorld, role: StaffRole, label: string): Promise<Staffer> {
-  return addStaffer(rink, role, label);
 }
 
 export function createCustomerAt(rinkId: string, input: { name?: string; email?: string | null } = {}) {

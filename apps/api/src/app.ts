@@ -45,7 +45,7 @@ export function createApp(env: Env): AppBundle {
   const logger = pino({ level: env.LOG_LEVEL, redact: ['req.headers.cookie', 'req.headers.authorization', 'res.headers["set-cookie"]'] });
   connectDb(env.DATABASE_URL, { connectionLimit: env.DB_POOL_SIZE });
   const mailer = createMailer(env, logger);
-  const auth = createAuth(env, currentDb(), mailer);
+  const auth = createAuth(env, currentDb(), mailer, logger);
   const routes = routeTable(env, auth);
 
   const app = express();
@@ -75,6 +75,9 @@ export function createApp(env: Env): AppBundle {
     req.headers[CLIENT_IP_HEADER] = req.ip ?? req.socket.remoteAddress ?? 'unknown';
     next();
   });
+  // Rinks, members and invitations change only through our own routes, which check the tenant and the role
+  // and validate the input; better-auth's organization endpoints are called server-side, never over HTTP.
+  app.all('/api/auth/organization/*splat', notFoundHandler);
   app.all('/api/auth/*splat', toNodeHandler(auth));
 
   app.use(express.json({ limit: '1mb' }));

@@ -1,4 +1,5 @@
 import { randomUUID } from 'node:crypto';
+import type { Logger } from 'pino';
 import { betterAuth } from 'better-auth';
 import { drizzleAdapter } from 'better-auth/adapters/drizzle';
 import { admin, organization } from 'better-auth/plugins';
@@ -15,10 +16,15 @@ export function trustedOrigins(env: Env): string[] {
   return [new URL(env.APP_URL).origin, ...env.EXTRA_ORIGINS];
 }
 
-export function createAuth(env: Env, db: Database, mailer: Mailer) {
+export function createAuth(env: Env, db: Database, mailer: Mailer, logger: Logger) {
   const appUrl = env.APP_URL.replace(/\/$/, '');
   return betterAuth({
     appName: 'Rinkwright',
+    // The library's own messages go to our logger, at our level.
+    logger: {
+      disabled: env.LOG_LEVEL === 'silent',
+      log: (level, message, ...args) => logger[level]({ detail: args }, `auth: ${message}`),
+    },
     baseURL: appUrl,
     basePath: '/api/auth',
     secret: env.BETTER_AUTH_SECRET,

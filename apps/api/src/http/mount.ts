@@ -46,8 +46,10 @@ export function mountRoutes(app: Express, routes: Route[], auth: Auth): void {
       const query = parsePart(route.query, req.query, 'query');
       const body = parsePart(route.body, req.body, 'body');
       const result = await route.handle({ ctx, params, query, body, req, res });
+      // A handler may answer with a status of its own (health answers 503); otherwise the route's status.
+      if (res.statusCode === 200) res.status(route.status);
       // The response schema is the contract: it also strips anything a handler should not have returned.
-      res.status(route.status).json(route.response.parse(result));
+      res.json(route.response.parse(result));
     });
   }
 }
