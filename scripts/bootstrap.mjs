@@ -1,6 +1,6 @@
 #!/usr/bin/env node
 // Entry point of npm start / test / run stop / run dev. Plain Node on purpose: it runs before any dependency exists.
-import { existsSync, mkdirSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { BootstrapError, fail, paths } from './lib/data.mjs';
 import { stopMariadb } from './lib/mariadb.mjs';
 import { isInterrupted, onInterrupt, recordPid, requireFreePorts, spawnDetached, stopRecorded } from './lib/procs.mjs';
@@ -19,17 +19,8 @@ import {
 } from './lib/services.mjs';
 import { test } from './lib/test-command.mjs';
 
-const DEMO_PASSWORD = 'rinkwright-demo';
-const DEMO_SIGN_INS = [
-  ['admin@rinkwright.test', 'platform admin'],
-  ['owner@ice-harbor.test', 'Ice Harbor, owner'],
-  ['manager@ice-harbor.test', 'Ice Harbor, manager'],
-  ['tech@ice-harbor.test', 'Ice Harbor, technician'],
-  ['league@ice-harbor.test', 'Ice Harbor, league manager'],
-  ['skater@ice-harbor.test', 'Ice Harbor, skater'],
-  ['manager@north-pond.test', 'North Pond Arena, manager'],
-  ['tech@north-pond.test', 'North Pond Arena, technician'],
-];
+// The same list the seed's users come from.
+const demo = JSON.parse(readFileSync(new URL('../packages/db/src/demo-sign-ins.json', import.meta.url), 'utf8'));
 const VITE_PORT = 5173;
 
 async function start() {
@@ -48,7 +39,7 @@ async function start() {
   await startServices([...fakeServices(ports, paths.mail), apiService(context, ports)], paths.pids, owned);
   undo();
 
-  const width = Math.max(...DEMO_SIGN_INS.map(([email]) => email.length));
+  const width = Math.max(...demo.signIns.map(({ email }) => email.length));
   console.log(
     [
       '',
@@ -56,8 +47,8 @@ async function start() {
       `  App:    http://127.0.0.1:${ports.api}`,
       `  Inbox:  http://127.0.0.1:${ports.mailWeb}   (every e-mail the app sends lands here)`,
       '',
-      `Demo sign-ins, all with the password ${DEMO_PASSWORD}:`,
-      ...DEMO_SIGN_INS.map(([email, role]) => `  ${email.padEnd(width)}  ${role}`),
+      `Demo sign-ins, all with the password ${demo.password}:`,
+      ...demo.signIns.map(({ email, who }) => `  ${email.padEnd(width)}  ${who}`),
       '',
       `Logs are in ${rel(paths.logs)}/. Stop everything with: npm run stop`,
     ].join('\n'),

@@ -57,4 +57,24 @@ describe('one rink never sees another', () => {
     expectNoProblems(session);
     await session.context.close();
   });
+
+  it('shows the platform admin every rink, and a skater the rinks where they skate', async () => {
+    const admin = await openSession(browser, 'platform-admin');
+    await signIn(admin, 'admin@rinkwright.test');
+    await admin.page.getByRole('link', { name: 'Platform', exact: true }).click();
+    for (const name of ['Ice Harbor', 'North Pond Arena']) await admin.page.getByRole('cell', { name, exact: true }).waitFor();
+    await admin.shot('platform-rinks');
+    expectNoProblems(admin);
+    await admin.context.close();
+
+    const skater = await openSession(browser, 'skater');
+    await signIn(skater, 'skater@ice-harbor.test');
+    const where = skater.page.getByRole('region', { name: 'Where you skate' });
+    await where.getByText('North Pond Arena').waitFor();
+    expect(await where.getByText(/Member code/).count()).toBe(2);
+    expect(await skater.page.getByRole('link', { name: 'Platform', exact: true }).count()).toBe(0);
+    await skater.shot('where-you-skate');
+    expectNoProblems(skater);
+    await skater.context.close();
+  });
 });

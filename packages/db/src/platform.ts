@@ -4,16 +4,6 @@ import { customer, member, rink } from './schema/index';
 
 // Reads across every rink, for the platform admin only (the route table gates them with access 'platform').
 export async function listRinksWithCounts() {
-  const members = currentDb()
-    .select({ tenantId: member.organizationId, n: sql<number>`count(*)`.as('n') })
-    .from(member)
-    .groupBy(member.organizationId)
-    .as('m');
-  const customers = currentDb()
-    .select({ tenantId: customer.tenantId, n: sql<number>`count(*)`.as('n') })
-    .from(customer)
-    .groupBy(customer.tenantId)
-    .as('c');
   return currentDb()
     .select({
       id: rink.id,
@@ -22,11 +12,9 @@ export async function listRinksWithCounts() {
       timeZone: rink.timeZone,
       currency: rink.currency,
       createdAt: rink.createdAt,
-      members: sql<number>`coalesce(${members.n}, 0)`,
-      customers: sql<number>`coalesce(${customers.n}, 0)`,
+      members: sql<number>`(select count(*) from ${member} where ${eq(member.organizationId, rink.id)})`.mapWith(Number),
+      customers: sql<number>`(select count(*) from ${customer} where ${eq(customer.tenantId, rink.id)})`.mapWith(Number),
     })
     .from(rink)
-    .leftJoin(members, eq(members.tenantId, rink.id))
-    .leftJoin(customers, eq(customers.tenantId, rink.id))
     .orderBy(desc(rink.createdAt));
 }

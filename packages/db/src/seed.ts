@@ -11,23 +11,13 @@ import {
   seededFaker,
   type StaffRole,
 } from './factories';
+import demo from './demo-sign-ins.json';
 import { rink } from './schema/index';
 
 // The demo: two independent, invented rinks. Everything comes from the shared factories and one fixed seed.
-export const DEMO_PASSWORD = 'rinkwright-demo';
+// The sign-ins are listed once, in a JSON file that `npm start` prints from as well.
+export const DEMO_PASSWORD = demo.password;
 const SEED = 20261201;
-
-export const DEMO_SIGN_INS = [
-  { email: 'admin@rinkwright.test', what: 'platform admin' },
-  { email: 'owner@ice-harbor.test', what: 'Ice Harbor owner' },
-  { email: 'manager@ice-harbor.test', what: 'Ice Harbor manager' },
-  { email: 'tech@ice-harbor.test', what: 'Ice Harbor technician' },
-  { email: 'league@ice-harbor.test', what: 'Ice Harbor league manager' },
-  { email: 'skater@ice-harbor.test', what: 'skater (customer of both rinks)' },
-  { email: 'owner@north-pond.test', what: 'North Pond Arena owner' },
-  { email: 'manager@north-pond.test', what: 'North Pond Arena manager' },
-  { email: 'tech@north-pond.test', what: 'North Pond Arena technician' },
-] as const;
 
 export async function seedDemo(db: Database): Promise<'seeded' | 'already-seeded'> {
   const existing = await db.select({ id: rink.id }).from(rink).where(eq(rink.slug, 'ice-harbor')).limit(1);

@@ -19,6 +19,10 @@ describe('createRinkInput', () => {
     expect(createRinkInput.parse(valid).currency).toBe('CAD');
   });
 
+  it('accepts zones Intl knows but does not list, such as UTC', () => {
+    expect(createRinkInput.safeParse({ ...valid, timeZone: 'UTC' }).success).toBe(true);
+  });
+
   it('names each bad field', () => {
     const result = createRinkInput.safeParse({ ...valid, timeZone: 'Mars/Olympus', currency: 'XYZQ', unitPreference: 'cm' });
     expect(result.success).toBe(false);

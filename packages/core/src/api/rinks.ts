@@ -1,7 +1,16 @@
 import { z } from 'zod';
 import { STAFF_ROLES } from '../roles';
 
-const timeZones = new Set(Intl.supportedValuesOf('timeZone'));
+// Intl's list leaves out aliases such as UTC on some engines, so a zone is valid when Intl can use it.
+const timeZones = new Set([...Intl.supportedValuesOf('timeZone'), 'UTC']);
+function isTimeZone(zone: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: zone });
+    return zone.length > 0;
+  } catch {
+    return false;
+  }
+}
 const currencies = new Set(Intl.supportedValuesOf('currency'));
 
 export const RESERVED_SLUGS = ['new', 'api', 'admin', 'platform', 'settings', 'app'] as const;
@@ -20,7 +29,7 @@ export type UnitPreference = z.infer<typeof unitPreference>;
 
 const rinkFields = {
   name: z.string().trim().min(2, 'At least 2 characters').max(120, 'At most 120 characters'),
-  timeZone: z.string().refine((tz) => timeZones.has(tz), 'Choose a time zone from the list'),
+  timeZone: z.string().max(64).refine(isTimeZone, 'Choose a time zone from the list'),
   currency: z
     .string()
     .trim()

@@ -1,7 +1,8 @@
 import type { FieldErrors, UseFormRegister } from 'react-hook-form';
+import { listTimeZones } from '@rinkwright/core';
 import { SelectField } from '../../../components/ui/field';
 
-const zones = Intl.supportedValuesOf('timeZone').map((z) => ({ value: z, label: z.replaceAll('_', ' ') }));
+const zones = listTimeZones().map((z) => ({ value: z, label: z.replaceAll('_', ' ') }));
 const currencies = Intl.supportedValuesOf('currency').map((c) => ({ value: c, label: currencyLabel(c) }));
 
 function currencyLabel(code: string): string {
@@ -14,7 +15,11 @@ export const UNIT_OPTIONS = [
   { value: 'mm', label: 'Millimetres (readings in hundredths of a millimetre)' },
 ];
 
-export const guessTimeZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone;
+/** The browser's zone if the list has it (it may be an alias such as Etc/UTC), else UTC. */
+export function guessTimeZone(): string {
+  const zone = Intl.DateTimeFormat().resolvedOptions().timeZone;
+  return listTimeZones().includes(zone) ? zone : 'UTC';
+}
 
 interface RinkFieldValues {
   name: string;

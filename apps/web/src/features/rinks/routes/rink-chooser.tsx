@@ -9,7 +9,15 @@ export function Component() {
   if (!me) return null;
   return (
     <div className="mx-auto max-w-4xl px-4 py-8">
-      <PageHeader title={`Hello, ${me.user.name}`} subtitle="Choose a rink to work in." actions={<LinkButton to="/rinks/new">Set up a new rink</LinkButton>} />
+      <PageHeader
+        title={`Hello, ${me.user.name}`}
+        subtitle={me.rinks.length > 0 ? 'Choose a rink to work in.' : 'Your rinks, and the rinks where you skate.'}
+        actions={
+          <LinkButton to="/rinks/new" tone={me.rinks.length > 0 ? 'primary' : 'secondary'}>
+            Set up a new rink
+          </LinkButton>
+        }
+      />
       <div className="grid gap-6 md:grid-cols-2">
         <Card title="Rinks you work at">
           {me.rinks.length === 0 ? (
