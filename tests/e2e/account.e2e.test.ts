@@ -1,7 +1,6 @@
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { linkIn, waitForMail } from '../support/mail';
-import { expectNoProblems, launchBrowser, openSession } from './browser';
+import { DEMO_PASSWORD, expectNoProblems, openSession, signIn, useBrowser } from './browser';
 
 // A demo technician forgets the password, resets it from the e-mailed link, renames the account, sets up a
 // rink of their own and switches between their two rinks. No other browser test uses this sign-in.
@@ -9,16 +8,10 @@ const EMAIL = 'tech@north-pond.test';
 const NEW_PASSWORD = 'new-edge-level-2026';
 
 describe('account upkeep', () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
+  const browser = useBrowser();
 
   it('resets a forgotten password, renames the account and switches between two rinks', async () => {
-    const session = await openSession(browser, 'account');
+    const session = await openSession(browser(), 'account');
     const { page } = session;
     await page.goto('/sign-in');
     await page.getByRole('link', { name: 'Forgot your password?' }).click();
@@ -39,12 +32,9 @@ describe('account upkeep', () => {
     await page.getByRole('button', { name: 'Save the new password' }).click();
     await page.getByText('Your password is changed').waitFor();
 
-    await page.getByLabel('E-mail').fill(EMAIL);
-    await page.getByLabel('Password').fill('rinkwright-demo');
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signIn(session, EMAIL, DEMO_PASSWORD);
     await page.getByText('That e-mail and password do not match an account.').waitFor();
-    await page.getByLabel('Password').fill(NEW_PASSWORD);
-    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signIn(session, EMAIL, NEW_PASSWORD);
     await page.waitForURL('**/rinks/north-pond-arena');
 
     await page.getByRole('navigation', { name: 'Account' }).getByRole('link', { name: 'Desmond Aukett' }).click();

@@ -1,14 +1,38 @@
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { expect, inject } from 'vitest';
+import { afterAll, beforeAll, expect, inject } from 'vitest';
 
 // Debian's Chromium, driven by playwright-core; never a downloaded browser.
-export async function launchBrowser(): Promise<Browser> {
+async function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath: inject('chromiumPath'),
     args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
     env: inject('browserEnv'),
   });
+}
+
+/** One browser for the calling test file, closed after it; each test opens its own sessions in it. */
+export function useBrowser(): () => Browser {
+  let browser: Browser | undefined;
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+  return () => {
+    if (!browser) throw new Error('the browser is not started yet');
+    return browser;
+  };
+}
+
+export const DEMO_PASSWORD = 'rinkwright-demo';
+
+export async function signIn(session: Session, email: string, password = DEMO_PASSWORD): Promise<void> {
+  await session.page.goto('/sign-in');
+  await session.page.getByLabel('E-mail').fill(email);
+  await session.page.getByLabel('Password').fill(password);
+  await session.page.getByRole('button', { name: 'Sign in' }).click();
 }
 
 export interface Session {

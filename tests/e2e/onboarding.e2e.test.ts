@@ -1,13 +1,12 @@
 import { randomUUID } from 'node:crypto';
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { linkIn, waitForMail } from '../support/mail';
-import { expectNoProblems, launchBrowser, openSession, type Session } from './browser';
+import { expectNoProblems, openSession, useBrowser, type Session } from './browser';
 
 // The first hour of a new rink, in a real browser: an owner signs up and confirms the e-mail from the captured
 // message, creates the rink, invites a technician; the technician accepts and sees only technician navigation.
 describe('a new rink gets going', () => {
-  let browser: Browser;
+  const browser = useBrowser();
   const id = randomUUID().slice(0, 8);
   const owner = { name: 'Wren Caldmoor', email: `owner-${id}@example.test`, password: 'glacier-steel-42' };
   const tech = { name: 'Ossian Brightwater', email: `tech-${id}@example.test`, password: 'hollow-depth-77' };
@@ -15,12 +14,6 @@ describe('a new rink gets going', () => {
   let invitationUrl = '';
   let slug = '';
 
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
 
   async function signUpAndConfirm(session: Session, person: typeof owner, startAt: string) {
     const { page } = session;
@@ -41,7 +34,7 @@ describe('a new rink gets going', () => {
   }
 
   it('lets an owner sign up, confirm the e-mail and create a rink', async () => {
-    const session = await openSession(browser, 'owner');
+    const session = await openSession(browser(), 'owner');
     const { page } = session;
     await page.goto('/');
     await session.shot('landing');
@@ -80,7 +73,7 @@ describe('a new rink gets going', () => {
 
   it('lets the invited technician accept and see only technician navigation', async () => {
     expect(invitationUrl).not.toBe('');
-    const session = await openSession(browser, 'technician');
+    const session = await openSession(browser(), 'technician');
     const { page } = session;
     await page.goto(invitationUrl);
     await page.getByRole('heading', { name: `Join ${rinkName}` }).waitFor();

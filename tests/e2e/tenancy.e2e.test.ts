@@ -1,29 +1,12 @@
-import type { Browser } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { expectNoProblems, launchBrowser, openSession, type Session } from './browser';
+import { describe, expect, it } from 'vitest';
+import { expectNoProblems, openSession, signIn, useBrowser } from './browser';
 
-// Demo sign-ins (seeded by the e2e set-up from the same seed as `npm start`).
-const PASSWORD = 'rinkwright-demo';
-
-async function signIn(session: Session, email: string) {
-  const { page } = session;
-  await page.goto('/sign-in');
-  await page.getByLabel('E-mail').fill(email);
-  await page.getByLabel('Password').fill(PASSWORD);
-  await page.getByRole('button', { name: 'Sign in' }).click();
-}
-
+// Demo sign-ins, seeded by the e2e set-up from the same seed as `npm start`.
 describe('one rink never sees another', () => {
-  let browser: Browser;
-  beforeAll(async () => {
-    browser = await launchBrowser();
-  });
-  afterAll(async () => {
-    await browser.close();
-  });
+  const browser = useBrowser();
 
   it("shows a manager of one rink the other rink's pages as not found", async () => {
-    const session = await openSession(browser, 'north-pond-manager');
+    const session = await openSession(browser(), 'north-pond-manager');
     const { page } = session;
     await signIn(session, 'manager@north-pond.test');
     await page.waitForURL('**/rinks/north-pond-arena');
@@ -41,7 +24,7 @@ describe('one rink never sees another', () => {
   });
 
   it('gives a manager the staff and settings pages', async () => {
-    const session = await openSession(browser, 'ice-harbor-manager');
+    const session = await openSession(browser(), 'ice-harbor-manager');
     const { page } = session;
     await signIn(session, 'manager@ice-harbor.test');
     await page.waitForURL('**/rinks/ice-harbor');
@@ -59,7 +42,7 @@ describe('one rink never sees another', () => {
   });
 
   it('shows the platform admin every rink, and a skater the rinks where they skate', async () => {
-    const admin = await openSession(browser, 'platform-admin');
+    const admin = await openSession(browser(), 'platform-admin');
     await signIn(admin, 'admin@rinkwright.test');
     await admin.page.getByRole('link', { name: 'Platform', exact: true }).click();
     for (const name of ['Ice Harbor', 'North Pond Arena']) await admin.page.getByRole('cell', { name, exact: true }).waitFor();
@@ -67,7 +50,7 @@ describe('one rink never sees another', () => {
     expectNoProblems(admin);
     await admin.context.close();
 
-    const skater = await openSession(browser, 'skater');
+    const skater = await openSession(browser(), 'skater');
     await signIn(skater, 'skater@ice-harbor.test');
     const where = skater.page.getByRole('region', { name: 'Where you skate' });
     await where.getByText('North Pond Arena').waitFor();
