@@ -1,3 +1,5 @@
 export * from './auth';
 export * from './rinks';
 export * from './customers';
+export * from './stations';
+export * from './desk';
