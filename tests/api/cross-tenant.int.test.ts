@@ -1,4 +1,6 @@
+import { randomUUID } from 'node:crypto';
 import { STAFF_ROLES, type StaffRole } from '@rinkwright/core';
+import { createService, createSharpening, createSkateProfile, createStation, createTicket } from '@rinkwright/db/testing';
 import { isTenantTable, rink, user } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { eq, inArray } from 'drizzle-orm';
@@ -21,19 +23,93 @@ interface Fixture {
   a: RinkWorld;
   b: RinkWorld;
   invitationOfB: { id: string };
+  desk: Desk;
+}
+
+/** A rink's counter with one of everything: station, service, customer with a profile, ticket, sharpening. */
+interface Desk {
+  stationId: string;
+  serviceId: string;
+  customerId: string;
+  profileId: string;
+  ticketId: string;
+  pairId: string;
+  sharpeningId: string;
+}
+
+async function deskOf(world: RinkWorld): Promise<Desk> {
+  const db = currentDb();
+  const stationRow = await createStation(db, world.id, { name: 'Swept station' });
+  const service = await createService(db, world.id);
+  const skater = await createCustomerAt(world.id, { name: 'Swept Skater', email: uniqueEmail('skater') });
+  const profile = await createSkateProfile(db, world.id, skater.id);
+  const made = await createTicket(db, world.id, { customerId: skater.id, serviceId: service.id, createdBy: world.staff.technician.id, number: 1, pairs: 2, state: 'on_station', stationId: stationRow.id });
+  const pairId = made.pairIds[0] ?? '';
+  const done = await createSharpening(db, world.id, { ticketId: made.id, pairId, stationId: stationRow.id, technicianId: world.staff.technician.id });
+  return { stationId: stationRow.id, serviceId: service.id, customerId: skater.id, profileId: profile.id, ticketId: made.id, pairId, sharpeningId: done.id };
 }
 
 /** B's real id for each path parameter a rink route may have. */
 const ID_OF_B: Record<string, (f: Fixture) => string> = {
   memberId: (f) => f.b.staff.technician.memberId,
   invitationId: (f) => f.invitationOfB.id,
+  stationId: (f) => f.desk.stationId,
+  serviceId: (f) => f.desk.serviceId,
+  customerId: (f) => f.desk.customerId,
+  profileId: (f) => f.desk.profileId,
+  ticketId: (f) => f.desk.ticketId,
+  sharpeningId: (f) => f.desk.sharpeningId,
 };
+
+const station = { name: 'Swept', rpm: 3450, adjustStepMilli: 125 };
+const reading = { readings: [{ blade: 'left', readingNm: 2540 }] };
 
 /** A body each route accepts, so that a call gets past validation to where it could do harm. */
 const EXAMPLE_BODIES: Record<string, () => unknown> = {
   'patch /api/rinks/:rinkSlug': () => ({ name: 'Renamed By A Stranger', currency: 'USD' }),
   'patch /api/rinks/:rinkSlug/members/:memberId': () => ({ role: 'league_manager' }),
   'post /api/rinks/:rinkSlug/invitations': () => ({ email: uniqueEmail('swept'), role: 'technician' }),
+  'post /api/rinks/:rinkSlug/stations': () => station,
+  'put /api/rinks/:rinkSlug/stations/:stationId': () => ({ ...station, status: 'retired' }),
+  'post /api/rinks/:rinkSlug/stations/:stationId/wheels': () => ({
+    label: 'Swept wheel',
+    grit: 80,
+    diameterNewNm: 203_200_000,
+    minDiameterNm: 152_400_000,
+    ratedMaxRpm: 4500,
+    hollowNm: 12_700_000,
+    ringTested: true,
+  }),
+  'post /api/rinks/:rinkSlug/stations/:stationId/dressings': () => ({ hollowNm: 12_700_000, diameterNm: 200_000_000 }),
+  'post /api/rinks/:rinkSlug/stations/:stationId/adjustments': () => ({ amountMilli: 250 }),
+  'post /api/rinks/:rinkSlug/stations/:stationId/check-readings': () => ({ blade: 'left', readingNm: 2540 }),
+  'put /api/rinks/:rinkSlug/desk-settings': () => ({
+    trueNm: 1000,
+    fairNm: 2000,
+    precisionTrueNm: 500,
+    precisionFairNm: 1000,
+    defaultResponseNmPerTurn: 25_400,
+    defaultMinutesPerPair: 8,
+    ewmaLambdaMilli: 200,
+    ewmaKMilli: 3000,
+  }),
+  'post /api/rinks/:rinkSlug/services': () => ({ name: 'Swept service', kind: 'add_on', priceMinor: 100 }),
+  'put /api/rinks/:rinkSlug/services/:serviceId': () => ({ name: 'Swept service', kind: 'add_on', priceMinor: 1 }),
+  'post /api/rinks/:rinkSlug/customers': () => ({ name: 'Swept Walk-up', phone: '555-0199' }),
+  'post /api/rinks/:rinkSlug/customers/:customerId/profiles': () => ({ label: 'Swept pair' }),
+  'put /api/rinks/:rinkSlug/customers/:customerId/profiles/:profileId': () => ({ label: 'Swept pair', notes: 'changed by a stranger' }),
+  'post /api/rinks/:rinkSlug/tickets': () => ({ customerId: f.desk.customerId, pairs: [{ label: 'Swept', serviceId: f.desk.serviceId }] }),
+  'post /api/rinks/:rinkSlug/tickets/:ticketId/transitions': () => ({ to: 'void', reason: 'voided by a stranger' }),
+  'post /api/rinks/:rinkSlug/tickets/:ticketId/sharpenings': () => ({
+    pairId: f.desk.pairId,
+    stationId: f.desk.stationId,
+    hollowNm: 12_700_000,
+    passes: 3,
+    bladeWidthNm: 2_900_000,
+    ...reading,
+  }),
+  'post /api/rinks/:rinkSlug/sharpenings/:sharpeningId/readings': () => reading,
+  'post /api/rinks/:rinkSlug/sharpenings/:sharpeningId/corrections': () => ({ reason: 'corrected by a stranger', hollowNm: 1, passes: 1, bladeWidthNm: 1 }),
 };
 
 const keyOf = (route: Route) => `${route.method} ${route.path}`;
@@ -58,7 +134,8 @@ function bodyFor(route: Route): unknown {
 }
 
 function call(agent: Client, route: Route, path: string) {
-  const request = agent[route.method](path);
+  // Counter writes need a key; a fresh one per call, so no call is answered from another's replay.
+  const request = agent[route.method](path).set('Idempotency-Key', `sweep-${randomUUID()}`);
   return route.method === 'get' || route.method === 'delete' ? request : request.send(bodyFor(route) as object);
 }
 
@@ -90,7 +167,8 @@ let before: Snapshot;
 beforeAll(async () => {
   f.a = await createRinkWithStaff('Ice Harbor');
   f.b = await createRinkWithStaff('North Pond Arena');
-  for (const world of [f.a, f.b]) await createCustomerAt(world.id, { name: 'Swept Skater', email: uniqueEmail('skater') });
+  await deskOf(f.a);
+  f.desk = await deskOf(f.b);
   await createPendingInvitation(f.a);
   f.invitationOfB = await createPendingInvitation(f.b);
   for (const role of STAFF_ROLES) agents[role] = await api.signIn(f.a.staff[role].email, f.a.staff[role].password);
@@ -113,6 +191,9 @@ describe('the sweep', () => {
     expect(before.member).toHaveLength(STAFF_ROLES.length);
     expect(before.invitation).toHaveLength(1);
     expect(before.customer).toHaveLength(1);
+    expect(before.station).toHaveLength(1);
+    expect(before.ticket_pair).toHaveLength(2);
+    expect(before.level_reading).toHaveLength(2);
     expect(before.rink).toHaveLength(1);
   });
 });

@@ -10,28 +10,33 @@ export const statements = {
   member: ['read', 'create', 'update', 'delete'],
   invitation: ['read', 'create', 'cancel'],
   customer: ['read', 'create', 'update'],
+  station: ['read', 'manage', 'upkeep'],
+  service: ['read', 'manage'],
+  ticket: ['read', 'create', 'work'],
 } as const;
 
 export const ac = createAccessControl(statements);
 
-const staffRead = { rink: ['read'], customer: ['read'] } as const;
+const staffRead = { rink: ['read'], customer: ['read'], station: ['read'], service: ['read'] } as const;
+const manage = {
+  rink: ['read', 'update'],
+  member: ['read', 'create', 'update', 'delete'],
+  invitation: ['read', 'create', 'cancel'],
+  customer: ['read', 'create', 'update'],
+  station: ['read', 'manage', 'upkeep'],
+  service: ['read', 'manage'],
+  ticket: ['read', 'create', 'work'],
+} as const;
 
 export const roles = {
-  owner: ac.newRole({
-    organization: ['update', 'delete'],
-    rink: ['read', 'update'],
-    member: ['read', 'create', 'update', 'delete'],
-    invitation: ['read', 'create', 'cancel'],
+  owner: ac.newRole({ organization: ['update', 'delete'], ...manage }),
+  manager: ac.newRole({ organization: ['update'], ...manage }),
+  technician: ac.newRole({
+    ...staffRead,
     customer: ['read', 'create', 'update'],
+    station: ['read', 'upkeep'],
+    ticket: ['read', 'create', 'work'],
   }),
-  manager: ac.newRole({
-    organization: ['update'],
-    rink: ['read', 'update'],
-    member: ['read', 'create', 'update', 'delete'],
-    invitation: ['read', 'create', 'cancel'],
-    customer: ['read', 'create', 'update'],
-  }),
-  technician: ac.newRole({ ...staffRead, customer: ['read', 'create', 'update'] }),
   league_manager: ac.newRole({ ...staffRead }),
 } satisfies Record<StaffRole, unknown>;
 

@@ -16,13 +16,17 @@ import { AppError } from './http/errors';
 import { mountRoutes } from './http/mount';
 import { buildOpenApi } from './http/openapi';
 import type { Route } from './http/route';
-import { createMailer } from './lib/mailer';
+import { createMailer, type Mailer } from './lib/mailer';
 import { errorHandler, notFoundHandler } from './middleware/errors';
 import { checkOrigin } from './middleware/origin';
 import { meRoutes } from './features/me/router';
 import { platformRoutes } from './features/platform/router';
 import { rinkRoutes } from './features/rinks/router';
 import { staffRoutes } from './features/staff/router';
+import { stationRoutes } from './features/stations/router';
+import { customerRoutes } from './features/customers/router';
+import { catalogRoutes } from './features/catalog/router';
+import { ticketRoutes } from './features/tickets/router';
 import { systemRoutes } from './features/system/router';
 
 export interface AppBundle {
@@ -34,10 +38,20 @@ export interface AppBundle {
 }
 
 /** Every route of the API, in one table: mounted, documented and swept for tenancy from here. */
-export function routeTable(env: Env, auth: Auth): Route[] {
+export function routeTable(env: Env, auth: Auth, mailer: Mailer, logger: Logger): Route[] {
   const routes: Route[] = [];
   const openApi = () => buildOpenApi(routes, env.APP_URL);
-  routes.push(...systemRoutes(env, openApi), ...meRoutes, ...rinkRoutes(auth), ...staffRoutes(auth), ...platformRoutes);
+  routes.push(
+    ...systemRoutes(env, openApi),
+    ...meRoutes,
+    ...rinkRoutes(auth),
+    ...staffRoutes(auth),
+    ...stationRoutes,
+    ...customerRoutes,
+    ...catalogRoutes,
+    ...ticketRoutes({ mailer, logger }),
+    ...platformRoutes,
+  );
   return routes;
 }
 
@@ -46,7 +60,7 @@ export function createApp(env: Env): AppBundle {
   connectDb(env.DATABASE_URL, { connectionLimit: env.DB_POOL_SIZE });
   const mailer = createMailer(env, logger);
   const auth = createAuth(env, currentDb(), mailer, logger);
-  const routes = routeTable(env, auth);
+  const routes = routeTable(env, auth, mailer, logger);
 
   const app = express();
   app.disable('x-powered-by');

@@ -5,3 +5,6 @@ export * from './api/me';
 export * from './api/staff';
 export * from './api/auth';
 export * from './api/platform';
+export * from './api/desk';
+export * from './member-code';
+export * from './numbers/index';

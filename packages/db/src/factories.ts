@@ -1,11 +1,30 @@
 import { randomUUID } from 'node:crypto';
 import { Faker, en } from '@faker-js/faker';
 import { hashPassword } from 'better-auth/crypto';
+import { memberCode } from '@rinkwright/core';
 import type { Executor } from './client';
-import { account, customer, invitation, member, rink, user } from './schema/index';
+import {
+  account,
+  customer,
+  invitation,
+  levelReading,
+  member,
+  rink,
+  serviceItem,
+  sharpening,
+  skateProfile,
+  station,
+  ticket,
+  ticketEvent,
+  ticketPair,
+  type TICKET_STATES,
+  user,
+} from './schema/index';
 
 // Fake-data factories shared by the tests and the demo seed. Each writes real rows through Drizzle;
 // a seeded Faker makes the demo the same on every machine.
+
+export { memberCode };
 
 export type StaffRole = 'owner' | 'manager' | 'technician' | 'league_manager';
 
@@ -102,14 +121,6 @@ export async function createInvitation(
   return { id, email };
 }
 
-const CODE_ALPHABET = '23456789ABCDEFGHJKMNPQRSTUVWXYZ';
-/** A short code a skater can read out at the counter: no 0/O or 1/I/L to confuse. */
-export function memberCode(random: () => number = Math.random): string {
-  let code = '';
-  for (let i = 0; i < 6; i++) code += CODE_ALPHABET[Math.floor(random() * CODE_ALPHABET.length)];
-  return code;
-}
-
 export async function createCustomer(
   db: Executor,
   rinkId: string,
@@ -128,4 +139,125 @@ export async function createCustomer(
   };
   await db.insert(customer).values(row);
   return row;
+}
+
+export async function createStation(
+  db: Executor,
+  rinkId: string,
+  input: { name?: string; status?: 'active' | 'maintenance' | 'retired'; rpm?: number; adjustStepMilli?: number; precision?: boolean } = {},
+) {
+  const row = {
+    id: randomUUID(),
+    tenantId: rinkId,
+    name: input.name ?? `Station ${uniqueSuffix()}`,
+    status: input.status ?? 'active',
+    rpm: input.rpm ?? 3450,
+    adjustUnit: 'turns' as const,
+    adjustStepMilli: input.adjustStepMilli ?? 125,
+    ownTrueNm: null,
+    ownFairNm: null,
+    precision: input.precision ?? false,
+    createdAt: new Date(),
+  };
+  await db.insert(station).values(row);
+  return row;
+}
+
+export async function createService(db: Executor, rinkId: string, input: { name?: string; kind?: 'standard' | 'profiling' | 'new_steel' | 'add_on'; priceMinor?: number } = {}) {
+  const row = { id: randomUUID(), tenantId: rinkId, name: input.name ?? 'Standard sharpening', kind: input.kind ?? 'standard', priceMinor: input.priceMinor ?? 1200, active: 1, createdAt: new Date() } as const;
+  await db.insert(serviceItem).values(row);
+  return row;
+}
+
+export async function createSkateProfile(db: Executor, rinkId: string, customerId: string, input: { label?: string; bladeWidthNm?: number; preferredHollowNm?: number } = {}) {
+  const row = {
+    id: randomUUID(),
+    tenantId: rinkId,
+    customerId,
+    label: input.label ?? 'Game skates',
+    bladeWidthNm: input.bladeWidthNm ?? 2_900_000,
+    preferredHollowNm: input.preferredHollowNm ?? 12_700_000,
+    profileRadiusNm: null,
+    notes: null,
+    createdAt: new Date(),
+    updatedAt: new Date(),
+  };
+  await db.insert(skateProfile).values(row);
+  return row;
+}
+
+/** A ticket with its pairs and first event, in the given state (numbers must be unique per rink). */
+export async function createTicket(
+  db: Executor,
+  rinkId: string,
+  input: { customerId: string; serviceId: string; createdBy: string; number: number; pairs?: number; state?: (typeof TICKET_STATES)[number]; stationId?: string | null; droppedAt?: Date },
+) {
+  const droppedAt = input.droppedAt ?? new Date();
+  const id = randomUUID();
+  await db.insert(ticket).values({
+    id,
+    tenantId: rinkId,
+    number: input.number,
+    customerId: input.customerId,
+    state: input.state ?? 'waiting',
+    stationId: input.stationId ?? null,
+    payment: 'counter',
+    droppedAt,
+    promisedAt: new Date(droppedAt.getTime() + 30 * 60_000),
+    createdBy: input.createdBy,
+  });
+  const pairs = Array.from({ length: input.pairs ?? 1 }, (_, i) => ({
+    id: randomUUID(),
+    tenantId: rinkId,
+    ticketId: id,
+    position: i + 1,
+    label: `Pair ${i + 1}`,
+    bladeWidthNm: 2_900_000,
+    hollowNm: 12_700_000,
+    serviceId: input.serviceId,
+    priceMinor: 1200,
+  }));
+  await db.insert(ticketPair).values(pairs);
+  await db.insert(ticketEvent).values({ id: randomUUID(), tenantId: rinkId, ticketId: id, toState: input.state ?? 'waiting', at: droppedAt, byUserId: input.createdBy });
+  return { id, number: input.number, pairIds: pairs.map((p) => p.id) };
+}
+
+/** One logged pair with its first reading on each blade. */
+export async function createSharpening(
+  db: Executor,
+  rinkId: string,
+  input: { ticketId: string; pairId: string; stationId: string; technicianId: string; wheelId?: string | null; passes?: number; readingsNm?: [number, number]; doneAt?: Date },
+) {
+  const id = randomUUID();
+  const doneAt = input.doneAt ?? new Date();
+  await db.insert(sharpening).values({
+    id,
+    tenantId: rinkId,
+    ticketId: input.ticketId,
+    ticketPairId: input.pairId,
+    stationId: input.stationId,
+    wheelId: input.wheelId ?? null,
+    technicianId: input.technicianId,
+    hollowNm: 12_700_000,
+    passes: input.passes ?? 4,
+    bladeWidthNm: 2_900_000,
+    doneAt,
+    createdAt: doneAt,
+  });
+  const [left, right] = input.readingsNm ?? [5_080, -2_540];
+  await db.insert(levelReading).values(
+    (['left', 'right'] as const).map((blade, i) => ({
+      id: randomUUID(),
+      tenantId: rinkId,
+      stationId: input.stationId,
+      sharpeningId: id,
+      kind: 'sharpening' as const,
+      blade,
+      attempt: 1,
+      readingNm: i === 0 ? left : right,
+      takenAt: doneAt,
+      takenBy: input.technicianId,
+    })),
+  );
+  return { id };
 }

@@ -97,12 +97,14 @@ describe('scoped(tenantId)', () => {
     const id = randomUUID();
     const bulk = [randomUUID(), randomUUID()];
 
+    // @ts-expect-error the type already refuses a tenant in the values; the scope must refuse it at run time too
     await scoped(w.a.id).insert(customer, { id, tenantId: w.b.id, name: 'Smuggled', memberCode: 'SMUG01' });
     await scoped(w.a.id).insert(
       customer,
       bulk.map((bulkId, i) => ({ id: bulkId, tenantId: w.b.id, name: `Bulk ${i}`, memberCode: `BULK0${i}` })),
     );
     const newcomer = await createUser(currentDb(), {});
+    // @ts-expect-error as above, for a table whose tenant property is organizationId
     await scoped(w.a.id).insert(member, { id: randomUUID(), organizationId: w.b.id, userId: newcomer.id, role: 'technician', createdAt: new Date() });
 
     const landed = await currentDb().select({ tenantId: customer.tenantId }).from(customer).where(eq(customer.id, id));

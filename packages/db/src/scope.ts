@@ -9,11 +9,23 @@ import { isTenantTable } from './tenancy';
 
 type Row<T extends MySqlTable> = T['$inferSelect'];
 type NewRow<T extends MySqlTable> = T['$inferInsert'];
-type Fields = Record<string, AnyMySqlColumn>;
-type Picked<F extends Fields> = { [K in keyof F]: F[K]['_']['notNull'] extends true ? F[K]['_']['data'] : F[K]['_']['data'] | null };
+/** What a caller passes to insert: the scope sets the tenant itself. */
+type NewTenantRow<T extends MySqlTable> = Omit<NewRow<T>, 'tenantId' | 'organizationId'>;
+type Fields = Record<string, AnyMySqlColumn | SQL<unknown> | SQL.Aliased<unknown>>;
+type PickedValue<V> = V extends AnyMySqlColumn
+  ? V['_']['notNull'] extends true
+    ? V['_']['data']
+    : V['_']['data'] | null
+  : V extends SQL<infer T>
+    ? T
+    : V extends SQL.Aliased<infer T>
+      ? T
+      : never;
+type Picked<F extends Fields> = { [K in keyof F]: PickedValue<F[K]> };
 
 interface FindOptions {
   where?: SQL | undefined;
+  groupBy?: (SQL | AnyMySqlColumn)[];
   orderBy?: SQL | AnyMySqlColumn | (SQL | AnyMySqlColumn)[];
   limit?: number;
   offset?: number;
@@ -29,6 +41,7 @@ interface Chain extends PromiseLike<unknown[]> {
   where(condition: SQL): Chain;
   innerJoin(table: MySqlTable, on: SQL): Chain;
   orderBy(...order: (SQL | AnyMySqlColumn)[]): Chain;
+  groupBy(...columns: (SQL | AnyMySqlColumn)[]): Chain;
   limit(n: number): Chain;
   offset(n: number): Chain;
 }
@@ -40,7 +53,7 @@ export interface Scope {
   findOne<T extends MySqlTable>(table: T, where: SQL): Promise<Row<T> | undefined>;
   findJoined<F extends Fields>(table: MySqlTable, options: FindOptions & { fields: F; joins: Join[] }): Promise<Picked<F>[]>;
   count(table: MySqlTable, where?: SQL): Promise<number>;
-  insert<T extends MySqlTable>(table: T, values: NewRow<T> | NewRow<T>[]): Promise<void>;
+  insert<T extends MySqlTable>(table: T, values: NewTenantRow<T> | NewTenantRow<T>[]): Promise<void>;
   update<T extends MySqlTable>(table: T, set: Partial<NewRow<T>>, where: SQL): Promise<number>;
   remove(table: MySqlTable, where: SQL): Promise<number>;
   rink(): Promise<typeof rink.$inferSelect | undefined>;
@@ -81,6 +94,7 @@ export function scoped(tenantId: string, executor?: Executor): Scope {
   const filter = (table: MySqlTable, where?: SQL) => and(eq(tenantColumnOf(table), tenantId), where) as SQL;
   const joinOn = (join: Join) => (isTenantTable(getTableConfig(join.table).name) ? filter(join.table, join.on) : join.on);
   const finish = (query: Chain, options: FindOptions): Chain => {
+    if (options.groupBy?.length) query = query.groupBy(...options.groupBy);
     const order = orderList(options.orderBy);
     if (order.length) query = query.orderBy(...order);
     if (options.limit !== undefined) query = query.limit(options.limit);
@@ -117,7 +131,7 @@ export function scoped(tenantId: string, executor?: Executor): Scope {
       const key = tenantPropertyOf(table);
       const list = (Array.isArray(values) ? values : [values]).map((v) => ({ ...v, [key]: tenantId }));
       if (list.length === 0) return;
-      await exec().insert(table).values(list);
+      await exec().insert(table).values(list as NewRow<typeof table>[]);
     },
 
     async update(table, set, where) {

@@ -9,6 +9,7 @@ export const STATUS_OF: Record<ErrorCode, number> = {
   forbidden_origin: 403,
   not_found: 404,
   conflict: 409,
+  unprocessable: 422,
   rate_limited: 429,
   unavailable: 503,
   internal: 500,

@@ -4,7 +4,8 @@ import type { Auth } from '../auth';
 import { roleAllows } from '../access';
 import { findCaller, requireCaller, resolveRink } from '../middleware/context';
 import { AppError, fieldsOf } from './errors';
-import type { Route } from './route';
+import { idempotencyKeyOf, once, requestHash, type StoredAnswer } from '../middleware/idempotency';
+import type { RinkContext, Route } from './route';
 
 function parsePart(schema: z.ZodType | undefined, value: unknown, part: 'params' | 'query' | 'body'): unknown {
   if (!schema) return undefined;
@@ -42,14 +43,26 @@ export function mountRoutes(app: Express, routes: Route[], auth: Auth): void {
   for (const route of routes) {
     app[route.method](route.path, async (req, res) => {
       const ctx = await contextFor(route, auth, req);
+      if (route.idempotent) idempotencyKeyOf(req);
       const params = parsePart(route.params, req.params, 'params');
       const query = parsePart(route.query, req.query, 'query');
       const body = parsePart(route.body, req.body, 'body');
-      const result = await route.handle({ ctx, params, query, body, req, res });
-      // A handler may answer with a status of its own (health answers 503); otherwise the route's status.
-      if (res.statusCode === 200) res.status(route.status);
       // The response schema is the contract: it also strips anything a handler should not have returned.
-      res.json(route.response.parse(result));
+      const run = async (): Promise<StoredAnswer> => {
+        const result = await route.handle({ ctx, params, query, body, req, res });
+        // A handler may answer with a status of its own (health answers 503); otherwise the route's status.
+        return { status: res.statusCode === 200 ? route.status : res.statusCode, body: route.response.parse(result) };
+      };
+      let answer: StoredAnswer;
+      if (route.idempotent) {
+        const key = idempotencyKeyOf(req);
+        const { tenantId } = ctx as RinkContext;
+        answer = await once(tenantId, key, `${route.method} ${route.path}`, requestHash(route.path, params, body), run);
+        res.setHeader('Idempotency-Key', key);
+      } else {
+        answer = await run();
+      }
+      res.status(answer.status).json(answer.body);
     });
   }
 }

@@ -15,6 +15,7 @@ export interface UserContext {
 export interface RinkContext extends UserContext {
   tenantId: string;
   rinkSlug: string;
+  rinkName: string;
   role: StaffRole;
   memberId: string;
 }
@@ -42,7 +43,8 @@ export interface RouteSpec<K extends AccessKind, P, Q, B, R extends Schema> {
   body?: B;
   response: R;
   status?: number;
-  /** Header the route requires (documented and checked), e.g. Idempotency-Key. */
+  /** A counter write: requires an Idempotency-Key header, and a repeat of the key gets the first answer. */
+  idempotent?: K extends 'rink' ? boolean : never;
   handle(input: {
     ctx: Contexts[K];
     params: Infer<P>;
@@ -64,6 +66,7 @@ export interface Route {
   body?: Schema;
   response: Schema;
   status: number;
+  idempotent?: boolean;
   handle(input: { ctx: unknown; params: unknown; query: unknown; body: unknown; req: Request; res: Response }): Promise<unknown>;
 }
 

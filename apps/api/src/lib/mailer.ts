@@ -45,3 +45,11 @@ export function actionMail(input: { to: string; subject: string; greeting: strin
 <p style="font-size:13px;color:#44586b">${escape(input.footer)}</p><p>— Rinkwright</p></body></html>`;
   return { to: input.to, subject: input.subject, text, html };
 }
+
+/** A message with no link to follow, such as "your skates are ready". */
+export function noticeMail(input: { to: string; subject: string; greeting: string; body: string; footer: string }): Mail {
+  const text = `${input.greeting}\n\n${input.body}\n\n${input.footer}\n\n— Rinkwright`;
+  const html = `<!doctype html><html><body style="font-family:Manrope,Arial,sans-serif;color:#0E2233;background:#F7FAFC;padding:24px">
+<p>${escape(input.greeting)}</p><p>${escape(input.body)}</p><p style="font-size:13px;color:#44586b">${escape(input.footer)}</p><p>— Rinkwright</p></body></html>`;
+  return { to: input.to, subject: input.subject, text, html };
+}

@@ -30,7 +30,7 @@ export async function resolveRink(caller: UserContext, slug: string): Promise<Ri
   if (!found) throw AppError.notFound(NOT_FOUND);
   const membership = await directory.findMembership(caller.userId, found.id);
   if (!membership || !isStaffRole(membership.role)) throw AppError.notFound(NOT_FOUND);
-  return { ...caller, tenantId: found.id, rinkSlug: found.slug, role: membership.role, memberId: membership.id };
+  return { ...caller, tenantId: found.id, rinkSlug: found.slug, rinkName: found.name, role: membership.role, memberId: membership.id };
 }
 
 function isStaffRole(role: string): role is StaffRole {

@@ -8,6 +8,7 @@ export const ERROR_CODES = [
   'forbidden_origin',
   'not_found',
   'conflict',
+  'unprocessable',
   'rate_limited',
   'unavailable',
   'internal',

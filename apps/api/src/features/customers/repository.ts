@@ -1,0 +1,39 @@
+import { and, asc, desc, eq, like, or } from 'drizzle-orm';
+import { customer, scoped, skateProfile, ticket } from '@rinkwright/db';
+
+const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
+
+/** Name, e-mail or phone containing the text, or the exact member code (what the portal's code shows). */
+export function searchCustomers(tenantId: string, q: string, limit = 25) {
+  const text = `%${escapeLike(q)}%`;
+  const digits = q.replace(/\D/g, '');
+  const where = q
+    ? or(
+        like(customer.name, text),
+        like(customer.email, text),
+        eq(customer.memberCode, q.toUpperCase()),
+        ...(digits.length >= 3 ? [like(customer.phone, `%${escapeLike(digits)}%`)] : []),
+      )
+    : undefined;
+  return scoped(tenantId).find(customer, { where, orderBy: q ? asc(customer.name) : desc(customer.createdAt), limit });
+}
+
+export const findCustomer = (tenantId: string, customerId: string) => scoped(tenantId).findOne(customer, eq(customer.id, customerId));
+
+export const memberCodeTaken = async (tenantId: string, code: string) => (await scoped(tenantId).count(customer, eq(customer.memberCode, code))) > 0;
+
+export const insertCustomer = (tenantId: string, row: Omit<typeof customer.$inferInsert, 'tenantId'>) => scoped(tenantId).insert(customer, row);
+
+export const profilesOf = (tenantId: string, customerId: string) =>
+  scoped(tenantId).find(skateProfile, { where: eq(skateProfile.customerId, customerId), orderBy: asc(skateProfile.label) });
+
+export const findProfile = (tenantId: string, customerId: string, profileId: string) =>
+  scoped(tenantId).findOne(skateProfile, and(eq(skateProfile.id, profileId), eq(skateProfile.customerId, customerId))!);
+
+export const insertProfile = (tenantId: string, row: Omit<typeof skateProfile.$inferInsert, 'tenantId'>) => scoped(tenantId).insert(skateProfile, row);
+
+export const updateProfile = (tenantId: string, profileId: string, set: Partial<typeof skateProfile.$inferInsert>) =>
+  scoped(tenantId).update(skateProfile, set, eq(skateProfile.id, profileId));
+
+export const ticketsOf = (tenantId: string, customerId: string) =>
+  scoped(tenantId).find(ticket, { where: eq(ticket.customerId, customerId), orderBy: desc(ticket.droppedAt), limit: 50 });

@@ -1,0 +1,378 @@
+import { randomUUID } from 'node:crypto';
+import {
+  levelFromTilt,
+  medianMinutesPerPair,
+  promiseTime,
+  type CorrectionInput,
+  type CreateTicketInput,
+  type LogSharpeningInput,
+  type ReadingInput,
+  type TicketDetail,
+  type TicketState,
+  type TicketSummary,
+  type TransitionInput,
+} from '@rinkwright/core';
+import type { Logger } from 'pino';
+import { AppError } from '../../http/errors';
+import type { RinkContext } from '../../http/route';
+import { readDeskSettings } from '../../lib/desk-settings';
+import { noticeMail, type Mailer } from '../../lib/mailer';
+import * as repo from './repository';
+
+const TICKET_NOT_FOUND = 'No such ticket at this rink';
+const PACE_DAYS = 28;
+/** A gap longer than this between two pairs at a station is a break, not the time one pair took. */
+const LONGEST_PAIR_MINUTES = 45;
+
+/** Where a ticket may go from each state; everything else is refused. */
+const NEXT: Record<TicketState, TicketState[]> = {
+  waiting: ['on_station', 'void'],
+  on_station: ['waiting', 'ready', 'void'],
+  ready: ['collected', 'on_station', 'void'],
+  collected: [],
+  void: [],
+};
+
+export interface TicketDeps {
+  mailer: Mailer;
+  logger: Logger;
+}
+
+// ---- the promise ------------------------------------------------------------------------------------------
+
+/** Each active station's median minutes per pair over the last weeks, from the gaps between its sharpenings. */
+async function stationPaces(tenantId: string, now: Date) {
+  const rows = await repo.recentSharpenings(tenantId, new Date(now.getTime() - PACE_DAYS * 86_400_000));
+  const gaps = new Map<string, number[]>();
+  for (let i = 1; i < rows.length; i++) {
+    const [a, b] = [rows[i - 1], rows[i]];
+    if (!a || !b || a.stationId !== b.stationId) continue;
+    const minutes = (b.doneAt.getTime() - a.doneAt.getTime()) / 60_000;
+    if (minutes > 0 && minutes <= LONGEST_PAIR_MINUTES) gaps.set(b.stationId, [...(gaps.get(b.stationId) ?? []), minutes]);
+  }
+  return gaps;
+}
+
+export async function promiseFor(ctx: RinkContext, pairs: number, now = new Date()) {
+  const [settings, stations, queue, paces] = await Promise.all([
+    readDeskSettings(ctx.tenantId),
+    repo.activeStations(ctx.tenantId),
+    repo.openQueue(ctx.tenantId),
+    stationPaces(ctx.tenantId, now),
+  ]);
+  const promised = promiseTime({
+    now,
+    queue: queue.map((t) => ({ pairs: Math.max(0, t.pairCount - t.pairsDone), stationId: t.stationId })),
+    stations: stations.map((s) => ({ id: s.id, medianMinutesPerPair: medianMinutesPerPair(paces.get(s.id) ?? []) })),
+    defaultMinutesPerPair: settings.defaultMinutesPerPair,
+    newPairs: pairs,
+  });
+  if (!promised) throw new AppError('conflict', 'No station is active: set one to active before taking skates in');
+  return { promisedAt: promised.promisedAt.toISOString(), minutesPerPair: promised.minutesPerPair, stationsActive: stations.length };
+}
+
+// ---- intake -------------------------------------------------------------------------------------------------
+
+export async function takeIn(ctx: RinkContext, input: CreateTicketInput): Promise<TicketDetail> {
+  const customer = await repo.findCustomer(ctx.tenantId, input.customerId);
+  if (!customer) throw AppError.field('customerId', 'No such customer at this rink');
+  const services = await repo.findServices(ctx.tenantId, [...new Set(input.pairs.map((p) => p.serviceId))]);
+  const profileIds = input.pairs.flatMap((p) => (p.skateProfileId ? [p.skateProfileId] : []));
+  const profiles = await repo.findProfiles(ctx.tenantId, customer.id, [...new Set(profileIds)]);
+  const fields: Record<string, string[]> = {};
+  input.pairs.forEach((p, i) => {
+    const service = services.find((s) => s.id === p.serviceId);
+    if (!service || service.active !== 1) fields[`pairs.${i}.serviceId`] = ['Choose one of the rink’s active services'];
+    if (p.skateProfileId && !profiles.some((pr) => pr.id === p.skateProfileId)) fields[`pairs.${i}.skateProfileId`] = ['That profile is not this customer’s'];
+  });
+  if (Object.keys(fields).length) throw new AppError('validation_failed', 'Some pairs need attention', fields);
+
+  const now = new Date();
+  const { promisedAt } = await promiseFor(ctx, input.pairs.length, now);
+  const id = randomUUID();
+  await repo.insertTicket(
+    ctx.tenantId,
+    {
+      id,
+      customerId: customer.id,
+      state: 'waiting',
+      stationId: null,
+      payment: input.payment,
+      notes: input.notes,
+      droppedAt: now,
+      promisedAt: new Date(promisedAt),
+      startedAt: null,
+      readyAt: null,
+      collectedAt: null,
+      voidReason: null,
+      createdBy: ctx.userId,
+    },
+    input.pairs.map((p, i) => {
+      const profile = profiles.find((pr) => pr.id === p.skateProfileId);
+      return {
+        id: randomUUID(),
+        ticketId: id,
+        position: i + 1,
+        skateProfileId: p.skateProfileId,
+        label: p.label,
+        bladeWidthNm: p.bladeWidthNm ?? profile?.bladeWidthNm ?? null,
+        hollowNm: p.hollowNm ?? profile?.preferredHollowNm ?? null,
+        serviceId: p.serviceId,
+        priceMinor: services.find((s) => s.id === p.serviceId)?.priceMinor ?? 0,
+        notes: p.notes,
+      };
+    }),
+  );
+  return describeTicket(ctx, id);
+}
+
+// ---- reading and listing ------------------------------------------------------------------------------------
+
+export async function listTickets(ctx: RinkContext, filter: { state: TicketState | 'open'; stationId?: string | undefined; customerId?: string | undefined }) {
+  const states: TicketState[] = filter.state === 'open' ? ['waiting', 'on_station', 'ready'] : [filter.state];
+  const rows = await repo.listTickets(ctx.tenantId, { states, stationId: filter.stationId, customerId: filter.customerId });
+  return { tickets: rows.map(toSummary) };
+}
+
+function toSummary(r: Awaited<ReturnType<typeof repo.listTickets>>[number]): TicketSummary {
+  return {
+    id: r.id,
+    number: r.number,
+    state: r.state,
+    customer: { id: r.customerId, name: r.customerName, memberCode: r.memberCode },
+    stationId: r.stationId,
+    payment: r.payment,
+    droppedAt: r.droppedAt.toISOString(),
+    promisedAt: r.promisedAt.toISOString(),
+    readyAt: r.readyAt?.toISOString() ?? null,
+    pairCount: r.pairCount,
+    pairsDone: r.pairsDone,
+  };
+}
+
+export async function describeTicket(ctx: RinkContext, ticketId: string): Promise<TicketDetail> {
+  const found = await repo.findTicket(ctx.tenantId, ticketId);
+  if (!found) throw AppError.notFound(TICKET_NOT_FOUND);
+  const [summary] = (await repo.listTickets(ctx.tenantId, { states: [found.state] })).filter((t) => t.id === ticketId);
+  if (!summary) throw AppError.notFound(TICKET_NOT_FOUND);
+  const [{ pairs, sharpenings, readings, events }, names] = await Promise.all([repo.ticketParts(ctx.tenantId, ticketId), repo.stationNames(ctx.tenantId)]);
+  return {
+    ...toSummary(summary),
+    notes: found.notes,
+    voidReason: found.voidReason,
+    pairs: pairs.map((p) => ({
+      ...p,
+      sharpenings: sharpenings
+        .filter((s) => s.ticketPairId === p.id)
+        .map((s) => ({
+          ...s,
+          doneAt: s.doneAt.toISOString(),
+          readings: readings
+            .filter((r) => r.sharpeningId === s.id)
+            .map((r) => ({ id: r.id, blade: r.blade, attempt: r.attempt, readingNm: r.readingNm, tiltMillideg: r.tiltMillideg, takenAt: r.takenAt.toISOString(), takenBy: r.takenBy })),
+        })),
+    })),
+    events: events.map((e) => ({
+      fromState: e.fromState,
+      toState: e.toState,
+      stationName: e.stationId ? (names.get(e.stationId) ?? null) : null,
+      reason: e.reason,
+      at: e.at.toISOString(),
+      by: e.by,
+    })),
+  };
+}
+
+// ---- moving a ticket --------------------------------------------------------------------------------------------
+
+async function requireTicket(ctx: RinkContext, ticketId: string) {
+  const found = await repo.findTicket(ctx.tenantId, ticketId);
+  if (!found) throw AppError.notFound(TICKET_NOT_FOUND);
+  return found;
+}
+
+async function requireActiveStation(ctx: RinkContext, stationId: string) {
+  const found = await repo.findStation(ctx.tenantId, stationId);
+  if (!found) throw AppError.field('stationId', 'No such station at this rink');
+  if (found.status !== 'active') throw AppError.field('stationId', `${found.name} is not active`);
+  return found;
+}
+
+export async function moveTicket(ctx: RinkContext, ticketId: string, input: TransitionInput, deps: TicketDeps): Promise<TicketDetail> {
+  const found = await requireTicket(ctx, ticketId);
+  if (!NEXT[found.state].includes(input.to)) {
+    throw new AppError('conflict', `A ticket that is ${found.state.replace('_', ' ')} cannot become ${input.to.replace('_', ' ')}`);
+  }
+  const now = new Date();
+  const event = { stationId: found.stationId, reason: null as string | null, at: now, byUserId: ctx.userId };
+  let set: Parameters<typeof repo.moveTicket>[3];
+  switch (input.to) {
+    case 'on_station': {
+      const target = await requireActiveStation(ctx, input.stationId);
+      set = { state: 'on_station', stationId: target.id, startedAt: found.startedAt ?? now };
+      event.stationId = target.id;
+      break;
+    }
+    case 'waiting':
+      set = { state: 'waiting' };
+      break;
+    case 'ready': {
+      const left = await repo.countUnsharpenedPairs(ctx.tenantId, ticketId);
+      if (left > 0) throw new AppError('conflict', `${left} pair${left === 1 ? ' is' : 's are'} not logged yet`);
+      set = { state: 'ready', readyAt: now };
+      break;
+    }
+    case 'collected':
+      set = { state: 'collected', collectedAt: now };
+      break;
+    case 'void':
+      set = { state: 'void', voidReason: input.reason };
+      event.reason = input.reason;
+      break;
+  }
+  // Two tablets pressing at once: only the first move from the state both saw takes effect.
+  if (!(await repo.moveTicket(ctx.tenantId, ticketId, found.state, set, event))) {
+    throw new AppError('conflict', 'The ticket changed meanwhile; look at it again');
+  }
+  if (input.to === 'ready') await sendReadyNotice(ctx, found.customerId, found.number, deps);
+  return describeTicket(ctx, ticketId);
+}
+
+/** The skater hears that the skates are ready; a mail that fails is logged and does not undo the ticket. */
+async function sendReadyNotice(ctx: RinkContext, customerId: string, number: number, deps: TicketDeps) {
+  const customer = await repo.findCustomer(ctx.tenantId, customerId);
+  if (!customer?.email) return;
+  const rinkName = ctx.rinkName;
+  try {
+    await deps.mailer.send(
+      noticeMail({
+        to: customer.email,
+        subject: `Your skates are ready at ${rinkName}`,
+        greeting: `Hello ${customer.name},`,
+        body: `Your skates on ticket ${number} are sharpened and ready to collect at the ${rinkName} counter.`,
+        footer: 'Blades are sharp: carry them with guards on.',
+      }),
+    );
+  } catch (error) {
+    deps.logger.error({ err: error, ticket: number }, 'ready notice not sent');
+  }
+}
+
+// ---- the sharpening log -----------------------------------------------------------------------------------------
+
+function readingRows(ctx: RinkContext, stationId: string, sharpeningId: string, widthNm: number, readings: ReadingInput[], attemptOf: (blade: 'left' | 'right') => number, at: Date) {
+  return readings.map((r) => {
+    const fromTilt = 'tiltDeg' in r;
+    return {
+      id: randomUUID(),
+      stationId,
+      sharpeningId,
+      kind: 'sharpening' as const,
+      blade: r.blade,
+      attempt: attemptOf(r.blade),
+      readingNm: fromTilt ? Math.round(levelFromTilt(widthNm, r.tiltDeg)) : r.readingNm,
+      tiltMillideg: fromTilt ? Math.round(r.tiltDeg * 1000) : null,
+      takenAt: at,
+      takenBy: ctx.userId,
+    };
+  });
+}
+
+function assertOneReadingPerBlade(readings: ReadingInput[]) {
+  const blades = readings.map((r) => r.blade);
+  if (new Set(blades).size !== blades.length) throw AppError.field('readings', 'One reading per blade; a re-run adds the next one');
+}
+
+export async function logSharpening(ctx: RinkContext, ticketId: string, input: LogSharpeningInput): Promise<TicketDetail> {
+  const found = await requireTicket(ctx, ticketId);
+  if (found.state !== 'waiting' && found.state !== 'on_station') {
+    throw new AppError('conflict', `The ticket is ${found.state.replace('_', ' ')}: reopen it on a station to log more`);
+  }
+  const target = await requireActiveStation(ctx, input.stationId);
+  assertOneReadingPerBlade(input.readings);
+  let pairId = input.pairId;
+  let newPair: Parameters<typeof repo.insertSharpening>[1]['newPair'];
+  if (input.newPair) {
+    const [service] = await repo.findServices(ctx.tenantId, [input.newPair.serviceId]);
+    if (!service || service.active !== 1) throw AppError.field('newPair.serviceId', 'Choose one of the rink’s active services');
+    pairId = randomUUID();
+    newPair = {
+      id: pairId,
+      ticketId,
+      position: await repo.nextPairPosition(ctx.tenantId, ticketId),
+      skateProfileId: null,
+      label: input.newPair.label,
+      bladeWidthNm: input.newPair.bladeWidthNm,
+      hollowNm: input.newPair.hollowNm,
+      serviceId: service.id,
+      priceMinor: service.priceMinor,
+      notes: input.newPair.notes,
+    };
+  } else {
+    if (!pairId || !(await repo.findPair(ctx.tenantId, ticketId, pairId))) throw AppError.field('pairId', 'No such pair on this ticket');
+    if ((await repo.originalSharpeningsOfPair(ctx.tenantId, pairId)) > 0) {
+      throw new AppError('conflict', 'This pair is already logged: add a re-run reading or a correction instead');
+    }
+  }
+  const now = new Date();
+  const sharpeningId = randomUUID();
+  const wheel = await repo.mountedWheel(ctx.tenantId, target.id);
+  if (found.state === 'waiting' || found.stationId !== target.id) {
+    // Logging a pair at a station puts the ticket on that station, as the technician would by hand.
+    await repo.moveTicket(ctx.tenantId, ticketId, found.state, { state: 'on_station', stationId: target.id, startedAt: found.startedAt ?? now }, { stationId: target.id, reason: null, at: now, byUserId: ctx.userId });
+  }
+  await repo.insertSharpening(ctx.tenantId, {
+    newPair,
+    sharpening: {
+      id: sharpeningId,
+      ticketId,
+      ticketPairId: pairId as string,
+      stationId: target.id,
+      wheelId: wheel?.id ?? null,
+      technicianId: ctx.userId,
+      hollowNm: input.hollowNm,
+      passes: input.passes,
+      bladeWidthNm: input.bladeWidthNm,
+      doneAt: now,
+      correctsId: null,
+      correctionReason: null,
+    },
+    readings: readingRows(ctx, target.id, sharpeningId, input.bladeWidthNm, input.readings, () => 1, now),
+  });
+  return describeTicket(ctx, ticketId);
+}
+
+async function requireSharpening(ctx: RinkContext, sharpeningId: string) {
+  const found = await repo.findSharpening(ctx.tenantId, sharpeningId);
+  if (!found) throw AppError.notFound('No such sharpening at this rink');
+  return found;
+}
+
+/** A re-run: each blade's reading is added as the next attempt; the earlier ones stay as they were. */
+export async function addRerunReadings(ctx: RinkContext, sharpeningId: string, readings: ReadingInput[]): Promise<TicketDetail> {
+  const found = await requireSharpening(ctx, sharpeningId);
+  assertOneReadingPerBlade(readings);
+  const existing = await repo.readingsOf(ctx.tenantId, sharpeningId);
+  const nextAttempt = (blade: 'left' | 'right') => Math.max(0, ...existing.filter((r) => r.blade === blade).map((r) => r.attempt)) + 1;
+  await repo.insertReadings(ctx.tenantId, readingRows(ctx, found.stationId, sharpeningId, found.bladeWidthNm, readings, nextAttempt, new Date()));
+  return describeTicket(ctx, found.ticketId);
+}
+
+/** A correction is a new record that points at the original; both stay in the history. */
+export async function correctSharpening(ctx: RinkContext, sharpeningId: string, input: CorrectionInput): Promise<TicketDetail> {
+  const original = await requireSharpening(ctx, sharpeningId);
+  if (original.correctsId) throw new AppError('conflict', 'Correct the original record, not a correction of it');
+  const { tenantId: _tenant, ...kept } = original;
+  await repo.insertCorrection(ctx.tenantId, {
+    ...kept,
+    id: randomUUID(),
+    technicianId: ctx.userId,
+    hollowNm: input.hollowNm,
+    passes: input.passes,
+    bladeWidthNm: input.bladeWidthNm,
+    correctsId: original.id,
+    correctionReason: input.reason,
+    createdAt: new Date(),
+  });
+  return describeTicket(ctx, original.ticketId);
+}
