@@ -312,3 +312,42 @@ export const correctionInput = z.object({
 });
 export type CorrectionInput = z.infer<typeof correctionInput>;
 export type RerunReadingInput = z.infer<typeof rerunReadingInput>;
+
+// ---- a station's quality page ----------------------------------------------------------------------------
+export const levelBand = z.enum(['true', 'fair', 'off']);
+
+export const stationDetail = z.object({
+  station: stationRow,
+  bands: z.object({ trueNm: nm, fairNm: nm, source: z.enum(['station', 'rink']), precision: z.boolean() }),
+  /** First readings of each blade and check readings, oldest first: the series the drift watch charts. */
+  readings: z.array(z.object({ takenAt: isoTime, readingNm: nm, band: levelBand, kind: z.enum(['sharpening', 'check']) })),
+  bandMix: z.object({ true: z.number().int(), fair: z.number().int(), off: z.number().int() }),
+  drift: z.object({
+    status: z.enum(['not_enough_data', 'watching']),
+    alert: z.boolean(),
+    reasons: z.array(z.object({ chart: z.string(), rule: z.string().optional(), index: z.number().int(), valueNm: z.number() })),
+    mean: z.number().nullable(),
+    ucl: z.number().nullable(),
+    lcl: z.number().nullable(),
+    ewma: z.array(z.number()),
+    ewmaUcl: z.number().nullable(),
+    ewmaLcl: z.number().nullable(),
+  }),
+  /** The leveling advice as computed (kind: advise | level | not_enough_data | too_noisy), with its numbers. */
+  advice: z.looseObject({ kind: z.enum(['advise', 'level', 'not_enough_data', 'too_noisy']) }),
+  adjustments: z.array(z.object({ at: isoTime, amountMilli: z.number().int(), note: z.string().nullable(), by: z.string(), beforeNm: z.number().nullable(), afterNm: z.number().nullable() })),
+  wheelLife: z
+    .object({
+      wearPerPassNm: z.number().nullable(),
+      passesLeft: z.number().nullable(),
+      daysLeft: z.number().nullable(),
+      predictedAt: isoTime.nullable(),
+      atOrBelowMinimum: z.boolean(),
+      sfpm: z.number(),
+      speedStatus: z.enum(['within', 'over', 'unrated']),
+      maxRpm: z.number().nullable(),
+    })
+    .nullable(),
+  wheelEvents: z.array(z.object({ kind: z.enum(['mount', 'dressing', 'removal']), hollowNm: nm.nullable(), diameterNm: nm.nullable(), at: isoTime, note: z.string().nullable() })),
+});
+export type StationDetail = z.infer<typeof stationDetail>;

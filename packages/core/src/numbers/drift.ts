@@ -2,7 +2,8 @@ import { assertFiniteValues, mean } from './stats';
 
 // Drift watch: control charts over a station's level readings, oldest first. The constants and chart formulas are
 // those of the NIST/SEMATECH e-Handbook of Statistical Methods, §6.3.2.1–§6.3.2.4; the run rules are the Western
-// Electric ones as the Handbook and the 1956 Western Electric handbook state them.
+// Electric ones (Western Electric Statistical Quality Control Handbook, 1956; also listed in the e-Handbook §6.3.2),
+// written here from memory.
 
 /** d₂ for moving ranges of two (NIST e-Handbook §6.3.2.1, n = 2 row). */
 export const D2 = 1.128;
@@ -35,7 +36,7 @@ export function imrChart(values: readonly number[]): ImrChart {
   const centre = mean(values);
   const mrBar = mean(movingRanges);
   const sigma = mrBar / D2;
-  const ucl = centre + 2.66 * mrBar;
+  const ucl = centre + 3 * sigma;
   const lcl = centre - 3 * sigma;
   const mrUcl = D4 * mrBar;
   const outOfControl = values.flatMap((v, i) => (v > ucl || v < lcl ? [i] : []));

@@ -113,3 +113,9 @@ export function recentSharpeningTimes(tenantId: string, since: Date) {
     orderBy: [asc(sharpening.stationId), asc(sharpening.doneAt)],
   });
 }
+
+/** Passes ground on a wheel before a time: what the wheel had done when a dressing measured it. */
+export async function passesOnWheelBefore(tenantId: string, wheelId: string, times: Date[]): Promise<number[]> {
+  const rows = await scoped(tenantId).find(sharpening, { where: and(eq(sharpening.wheelId, wheelId), isNull(sharpening.correctsId)) });
+  return times.map((t) => rows.filter((r) => r.doneAt < t).reduce((sum, r) => sum + r.passes, 0));
+}

@@ -9,6 +9,7 @@ import {
   stationInput,
   stationList,
   stationParams,
+  stationDetail,
   stationRow,
 } from '@rinkwright/core';
 import { defineRoute } from '../../http/route';
@@ -35,6 +36,16 @@ export const stationRoutes = [
     body: stationInput,
     response: stationRow,
     handle: ({ ctx, body }) => stations.addStation(ctx, body),
+  }),
+  defineRoute({
+    method: 'get',
+    path: '/api/rinks/:rinkSlug/stations/:stationId',
+    summary: 'A station with its readings in their bands, the drift watch, the leveling advice and the wheel life',
+    access: 'rink',
+    permission: { station: ['read'] },
+    params: stationParams,
+    response: stationDetail,
+    handle: ({ ctx, params }) => stations.describeStation(ctx, params.stationId),
   }),
   defineRoute({
     method: 'put',

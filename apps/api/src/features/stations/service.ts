@@ -5,12 +5,14 @@ import type {
   DeskSettings,
   DressingInput,
   MountWheelInput,
+  StationDetail,
   StationInput,
   StationRow,
 } from '@rinkwright/core';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
 import { readDeskSettings, saveDeskSettings } from '../../lib/desk-settings';
+import { assessStation } from './quality';
 import * as repo from './repository';
 
 const NOT_FOUND = 'No such station at this rink';
@@ -155,4 +157,27 @@ export const getDeskSettings = (ctx: RinkContext) => readDeskSettings(ctx.tenant
 export async function putDeskSettings(ctx: RinkContext, input: DeskSettings): Promise<DeskSettings> {
   await saveDeskSettings(ctx.tenantId, input);
   return readDeskSettings(ctx.tenantId);
+}
+
+/** How far back the station page looks. */
+const HISTORY_DAYS = 120;
+
+export async function describeStation(ctx: RinkContext, stationId: string): Promise<StationDetail> {
+  const row = await stationRowOf(ctx, stationId);
+  const now = new Date();
+  const [settings, readings, adjustments, events] = await Promise.all([
+    readDeskSettings(ctx.tenantId),
+    repo.readingsSince(ctx.tenantId, stationId, new Date(now.getTime() - HISTORY_DAYS * 86_400_000)),
+    repo.adjustmentsOf(ctx.tenantId, stationId),
+    row.wheel ? repo.wheelEvents(ctx.tenantId, [row.wheel.id]) : Promise.resolve([]),
+  ]);
+  const passes = row.wheel ? await repo.passesOnWheelBefore(ctx.tenantId, row.wheel.id, events.map((e) => e.at)) : [];
+  return assessStation({
+    station: row,
+    settings,
+    readings,
+    adjustments,
+    wheelEvents: events.map((e, i) => ({ kind: e.kind, hollowNm: e.hollowNm, diameterNm: e.diameterNm, at: e.at, note: e.note, passesBefore: passes[i] ?? 0 })),
+    now,
+  });
 }
