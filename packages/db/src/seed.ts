@@ -13,6 +13,7 @@ import {
 } from './factories';
 import demo from './demo-sign-ins.json';
 import { rink } from './schema/index';
+import { seedDesk } from './seed-desk';
 
 // The demo: two independent, invented rinks. Everything comes from the shared factories and one fixed seed.
 // The sign-ins are listed once, in a JSON file that `npm start` prints from as well.
@@ -85,6 +86,28 @@ export async function seedDemo(db: Database): Promise<'seeded' | 'already-seeded
 
     const managerId = users.get('manager@ice-harbor.test');
     if (managerId) await createInvitation(tx, { rinkId: iceHarbor.id, inviterId: managerId, email: 'new-tech@ice-harbor.test', role: 'technician' });
+
+    const now = new Date();
+    const staffOf = (...emails: string[]) => emails.flatMap((e) => (users.get(e) ? [users.get(e) as string] : []));
+    await seedDesk(tx as unknown as Database, faker, {
+      rinkId: iceHarbor.id,
+      technicianIds: staffOf('tech@ice-harbor.test', 'manager@ice-harbor.test'),
+      stationNames: ['Bench 1', 'Bench 2', 'Bench 3'],
+      driftingStation: 'Bench 2',
+      ticketsPerDay: 12,
+      priceMinor: 1200,
+      days: 182,
+      now,
+    });
+    await seedDesk(tx as unknown as Database, faker, {
+      rinkId: northPond.id,
+      technicianIds: staffOf('tech@north-pond.test', 'manager@north-pond.test'),
+      stationNames: ['Main bench'],
+      ticketsPerDay: 4,
+      priceMinor: 1000,
+      days: 182,
+      now,
+    });
   });
   return 'seeded';
 }

@@ -43,6 +43,12 @@ export function createAppRouter(client: QueryClient) {
               errorElement: <RouteError />,
               children: [
                 { index: true, lazy: () => import('../features/rinks/routes/rink-overview') },
+                { path: 'counter', lazy: () => import('../features/desk/routes/counter') },
+                { path: 'tickets/:ticketId', lazy: () => import('../features/desk/routes/ticket') },
+                { path: 'customers/:customerId', lazy: () => import('../features/desk/routes/customer') },
+                { path: 'stations', lazy: () => import('../features/stations/routes/stations') },
+                { path: 'stations/:stationId', lazy: () => import('../features/stations/routes/station') },
+                { path: 'services', lazy: () => import('../features/catalog/routes/services') },
                 { path: 'staff', lazy: () => import('../features/staff/routes/staff') },
                 { path: 'settings', lazy: () => import('../features/rinks/routes/rink-settings') },
               ],

@@ -175,12 +175,14 @@ export function levelingAdvice(input: LevelingAdviceInput): LevelingAdvice {
   const rawTurns = clean(-meanNm / slope);
   const response: ResponseSummary = { responseNmPerTurn: slope, responseSource: useFit ? 'fit' : 'default', fit, stepEffectNm, rawTurns };
 
-  const allowedStdErrMeanNm = Math.max(maxMean * Math.abs(meanNm), stepEffectNm / 2);
-  if (stdErrMeanNm > allowedStdErrMeanNm) return { kind: 'too_noisy', reason: 'readings', allowedStdErrMeanNm, fit, ...readings };
-
   // Nearest step, halves away from zero: rounding toward zero is how a correction ends up short of level.
   const steps = Math.sign(rawTurns) * Math.round(Math.abs(rawTurns) / step) || 0;
+  // A mean that no turn of the screw would bring closer to zero needs no advice, however scattered the readings:
+  // there is nothing to correct. Noise only matters when it would decide a correction.
   if (steps === 0 || Math.abs(meanNm) <= tolerance) return { kind: 'level', ...readings, ...response };
+
+  const allowedStdErrMeanNm = Math.max(maxMean * Math.abs(meanNm), stepEffectNm / 2);
+  if (stdErrMeanNm > allowedStdErrMeanNm) return { kind: 'too_noisy', reason: 'readings', allowedStdErrMeanNm, fit, ...readings };
 
   const turns = clean(steps * step);
   const uncertaintyTurns = Math.hypot(stdErrMeanNm / slope, (meanNm * slopeStdErr) / (slope * slope));

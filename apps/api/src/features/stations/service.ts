@@ -160,7 +160,7 @@ export async function putDeskSettings(ctx: RinkContext, input: DeskSettings): Pr
 }
 
 /** How far back the station page looks. */
-const HISTORY_DAYS = 120;
+const HISTORY_DAYS = 190;
 
 export async function describeStation(ctx: RinkContext, stationId: string): Promise<StationDetail> {
   const row = await stationRowOf(ctx, stationId);

@@ -52,7 +52,10 @@ export async function insertTicket(tenantId: string, row: Omit<TicketRow, 'tenan
   }
 }
 
-export function listTickets(tenantId: string, filter: { states: TicketState[]; stationId?: string | undefined; customerId?: string | undefined }) {
+export function listTickets(
+  tenantId: string,
+  filter: { states: TicketState[]; stationId?: string | undefined; customerId?: string | undefined; ticketId?: string | undefined },
+) {
   const pairs = sql<number>`(select count(*) from ${ticketPair} where ${ticketPair.tenantId} = ${ticket.tenantId} and ${ticketPair.ticketId} = ${ticket.id})`.mapWith(Number);
   const done = sql<number>`(select count(distinct ${sharpening.ticketPairId}) from ${sharpening} where ${sharpening.tenantId} = ${ticket.tenantId} and ${sharpening.ticketId} = ${ticket.id})`.mapWith(Number);
   return scoped(tenantId).findJoined(ticket, {
@@ -76,6 +79,7 @@ export function listTickets(tenantId: string, filter: { states: TicketState[]; s
       inArray(ticket.state, filter.states),
       filter.stationId ? eq(ticket.stationId, filter.stationId) : undefined,
       filter.customerId ? eq(ticket.customerId, filter.customerId) : undefined,
+      filter.ticketId ? eq(ticket.id, filter.ticketId) : undefined,
     ),
     orderBy: filter.states.includes('collected') ? [desc(ticket.droppedAt)] : [asc(ticket.promisedAt), asc(ticket.number)],
     limit: 200,
@@ -177,18 +181,30 @@ export async function moveTicket(
   });
 }
 
-export async function insertSharpening(tenantId: string, input: { newPair?: NewPair; sharpening: NewSharpening; readings: NewReading[] }) {
-  await scoped(tenantId).transaction(async (tx: Scope) => {
-    if (input.newPair) await tx.insert(ticketPair, input.newPair);
+/**
+ * Logs a pair in one transaction that first takes the ticket's row lock, so two tablets logging on one ticket at
+ * once take turns: the second sees the first's pair and sharpening before it decides a new pair's position or
+ * whether the named pair is done. The ticket must still be open for work.
+ */
+export async function insertSharpening(
+  tenantId: string,
+  input: { ticketId: string; newPair?: Omit<NewPair, 'position'>; sharpening: NewSharpening; readings: NewReading[] },
+): Promise<'logged' | 'already_logged' | 'closed'> {
+  return scoped(tenantId).transaction(async (tx: Scope) => {
+    // Writes nothing new; the driver counts matched rows, so an open ticket always answers 1.
+    const claimed = await tx.update(ticket, { id: input.ticketId }, and(eq(ticket.id, input.ticketId), inArray(ticket.state, ['waiting', 'on_station']))!);
+    if (claimed === 0) return 'closed';
+    if (input.newPair) {
+      const [last] = await tx.findJoined(ticketPair, { fields: { n: max(ticketPair.position) }, joins: [], where: eq(ticketPair.ticketId, input.ticketId) });
+      await tx.insert(ticketPair, { ...input.newPair, position: (last?.n ?? 0) + 1 });
+    } else if ((await tx.count(sharpening, and(eq(sharpening.ticketPairId, input.sharpening.ticketPairId), isNull(sharpening.correctsId)))) > 0) {
+      return 'already_logged';
+    }
     await tx.insert(sharpening, input.sharpening);
     if (input.readings.length) await tx.insert(levelReading, input.readings);
+    return 'logged';
   });
 }
-
-export const nextPairPosition = async (tenantId: string, ticketId: string) => {
-  const [row] = await scoped(tenantId).findJoined(ticketPair, { fields: { n: max(ticketPair.position) }, joins: [], where: eq(ticketPair.ticketId, ticketId) });
-  return (row?.n ?? 0) + 1;
-};
 
 export const findPair = (tenantId: string, ticketId: string, pairId: string) =>
   scoped(tenantId).findOne(ticketPair, and(eq(ticketPair.id, pairId), eq(ticketPair.ticketId, ticketId))!);

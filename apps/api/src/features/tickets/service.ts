@@ -20,6 +20,7 @@ import { noticeMail, type Mailer } from '../../lib/mailer';
 import * as repo from './repository';
 
 const TICKET_NOT_FOUND = 'No such ticket at this rink';
+const ALREADY_LOGGED = 'This pair is already logged: add a re-run reading or a correction instead';
 const PACE_DAYS = 28;
 /** A gap longer than this between two pairs at a station is a break, not the time one pair took. */
 const LONGEST_PAIR_MINUTES = 45;
@@ -153,7 +154,8 @@ function toSummary(r: Awaited<ReturnType<typeof repo.listTickets>>[number]): Tic
 export async function describeTicket(ctx: RinkContext, ticketId: string): Promise<TicketDetail> {
   const found = await repo.findTicket(ctx.tenantId, ticketId);
   if (!found) throw AppError.notFound(TICKET_NOT_FOUND);
-  const [summary] = (await repo.listTickets(ctx.tenantId, { states: [found.state] })).filter((t) => t.id === ticketId);
+  // By id, not by filtering a page of the list: the list stops at 200 and a busy rink passes that.
+  const [summary] = await repo.listTickets(ctx.tenantId, { states: [found.state], ticketId });
   if (!summary) throw AppError.notFound(TICKET_NOT_FOUND);
   const [{ pairs, sharpenings, readings, events }, names] = await Promise.all([repo.ticketParts(ctx.tenantId, ticketId), repo.stationNames(ctx.tenantId)]);
   return {
@@ -299,7 +301,6 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
     newPair = {
       id: pairId,
       ticketId,
-      position: await repo.nextPairPosition(ctx.tenantId, ticketId),
       skateProfileId: null,
       label: input.newPair.label,
       bladeWidthNm: input.newPair.bladeWidthNm,
@@ -310,9 +311,7 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
     };
   } else {
     if (!pairId || !(await repo.findPair(ctx.tenantId, ticketId, pairId))) throw AppError.field('pairId', 'No such pair on this ticket');
-    if ((await repo.originalSharpeningsOfPair(ctx.tenantId, pairId)) > 0) {
-      throw new AppError('conflict', 'This pair is already logged: add a re-run reading or a correction instead');
-    }
+    if ((await repo.originalSharpeningsOfPair(ctx.tenantId, pairId)) > 0) throw new AppError('conflict', ALREADY_LOGGED);
   }
   const now = new Date();
   const sharpeningId = randomUUID();
@@ -321,7 +320,8 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
     // Logging a pair at a station puts the ticket on that station, as the technician would by hand.
     await repo.moveTicket(ctx.tenantId, ticketId, found.state, { state: 'on_station', stationId: target.id, startedAt: found.startedAt ?? now }, { stationId: target.id, reason: null, at: now, byUserId: ctx.userId });
   }
-  await repo.insertSharpening(ctx.tenantId, {
+  const outcome = await repo.insertSharpening(ctx.tenantId, {
+    ticketId,
     newPair,
     sharpening: {
       id: sharpeningId,
@@ -339,6 +339,9 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
     },
     readings: readingRows(ctx, target.id, sharpeningId, input.bladeWidthNm, input.readings, () => 1, now),
   });
+  // Another tablet got there first while this request was on its way.
+  if (outcome === 'already_logged') throw new AppError('conflict', ALREADY_LOGGED);
+  if (outcome === 'closed') throw new AppError('conflict', 'The ticket changed meanwhile; look at it again');
   return describeTicket(ctx, ticketId);
 }
 

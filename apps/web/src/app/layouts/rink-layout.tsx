@@ -1,6 +1,7 @@
 import { NavLink, Outlet, useParams } from 'react-router';
 import { Alert, Loading } from '../../components/ui/feedback';
 import { NotFound } from '../../components/ui/not-found';
+import { PendingWrites } from '../../components/ui/pending-writes';
 import { useRinkSummary } from '../../features/rinks/api/get-rink';
 import { ApiError } from '../../lib/api-client';
 import { can } from '../../lib/rink-context';
@@ -21,6 +22,9 @@ export function RinkLayout() {
   const summary = rink.data;
   const links = [
     { to: '', label: 'Overview', show: true },
+    { to: 'counter', label: 'Counter', show: can(summary, 'ticket', 'read') },
+    { to: 'stations', label: 'Stations', show: can(summary, 'station', 'read') },
+    { to: 'services', label: 'Services', show: can(summary, 'service', 'manage') },
     { to: 'staff', label: 'Staff', show: can(summary, 'member', 'read') },
     { to: 'settings', label: 'Settings', show: can(summary, 'rink', 'update') },
   ].filter((l) => l.show);
@@ -31,7 +35,7 @@ export function RinkLayout() {
           <NavLink
             key={l.to}
             to={l.to}
-            end
+            end={l.to === ''}
             className={({ isActive }) =>
               `flex min-h-11 items-center border-b-4 px-4 text-sm font-semibold ${isActive ? 'border-steel text-ink' : 'border-transparent text-ink-soft hover:text-ink'}`
             }
@@ -40,6 +44,7 @@ export function RinkLayout() {
           </NavLink>
         ))}
       </nav>
+      <PendingWrites rinkSlug={summary.slug} />
       <Outlet context={summary} />
     </div>
   );

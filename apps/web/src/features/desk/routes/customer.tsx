@@ -1,0 +1,103 @@
+import { useState } from 'react';
+import { Link, useParams } from 'react-router';
+import type { SkateProfileInput } from '@rinkwright/core';
+import { Button } from '../../../components/ui/button';
+import { Alert, Loading } from '../../../components/ui/feedback';
+import { TextField } from '../../../components/ui/field';
+import { Card, PageHeader } from '../../../components/ui/layout';
+import { NotFound } from '../../../components/ui/not-found';
+import { ApiError } from '../../../lib/api-client';
+import { formatDateTime } from '../../../lib/format';
+import { can, useRink } from '../../../lib/rink-context';
+import { parseLength, showLength } from '../../../lib/units';
+import { useAddProfile } from '../api/add-profile';
+import { useCustomer } from '../api/get-customer';
+import { HollowField } from '../components/hollow-field';
+import { STATE_WORDS } from '../components/state-words';
+
+function AddProfile({ slug, customerId, unit }: { slug: string; customerId: string; unit: 'in' | 'mm' }) {
+  const add = useAddProfile(slug, customerId);
+  const [label, setLabel] = useState('');
+  const [width, setWidth] = useState('');
+  const [hollowNm, setHollowNm] = useState<number | null>(null);
+  const [notes, setNotes] = useState('');
+  const [problem, setProblem] = useState('');
+  async function submit() {
+    setProblem('');
+    const input: SkateProfileInput = { label, bladeWidthNm: width ? parseLength(width, unit) : null, preferredHollowNm: hollowNm, profileRadiusNm: null, notes: notes || null };
+    try {
+      await add.mutateAsync(input);
+      setLabel('');
+      setWidth('');
+      setNotes('');
+      setHollowNm(null);
+    } catch (error) {
+      setProblem(error instanceof ApiError && error.fields ? Object.values(error.fields).flat().join(' ') : String((error as Error).message));
+    }
+  }
+  return (
+    <form className="grid gap-3 sm:grid-cols-4 sm:items-end" onSubmit={(e) => (e.preventDefault(), void submit())} aria-label="Add a skate profile">
+      <TextField label="Label" placeholder="e.g. Game skates" value={label} onChange={(e) => setLabel(e.target.value)} />
+      <TextField label={`Blade width (${unit})`} value={width} onChange={(e) => setWidth(e.target.value)} inputMode="decimal" />
+      <HollowField label="Preferred hollow" valueNm={hollowNm} onChange={setHollowNm} unit={unit} />
+      <TextField label="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} />
+      <div className="sm:col-span-4">
+        <Alert>{problem}</Alert>
+      </div>
+      <Button type="submit" busy={add.isPending}>
+        Add profile
+      </Button>
+    </form>
+  );
+}
+
+export function Component() {
+  const rink = useRink();
+  const { customerId = '' } = useParams();
+  const detail = useCustomer(rink.slug, customerId);
+  if (!can(rink, 'customer', 'read')) return <NotFound />;
+  if (detail.isPending) return <Loading />;
+  if (detail.isError) return detail.error instanceof ApiError && detail.error.status === 404 ? <NotFound message="No such customer at this rink." /> : <Alert>{detail.error.message}</Alert>;
+  const { customer, profiles, tickets } = detail.data;
+  const unit = rink.unitPreference;
+  return (
+    <div className="space-y-6">
+      <PageHeader
+        title={customer.name}
+        subtitle={
+          <>
+            Member code <span className="font-mono font-bold tracking-wider">{customer.memberCode}</span> · {customer.phone ?? '—'} · {customer.email ?? '—'}
+            {customer.linked ? ' · has a Rinkwright account' : ''}
+          </>
+        }
+      />
+      <Card title="Skate profiles">
+        <ul className="mb-4 divide-y divide-rule">
+          {profiles.map((p) => (
+            <li key={p.id} className="py-2">
+              <span className="font-semibold">{p.label}</span> · blade {showLength(p.bladeWidthNm, unit, 'width')} · hollow {showLength(p.preferredHollowNm, unit, 'hollow')}
+              {p.notes ? <span className="block text-sm text-ink-soft">{p.notes}</span> : null}
+            </li>
+          ))}
+          {profiles.length === 0 ? <li className="py-2 text-ink-soft">No profile yet.</li> : null}
+        </ul>
+        {can(rink, 'customer', 'update') ? <AddProfile slug={rink.slug} customerId={customer.id} unit={unit} /> : null}
+      </Card>
+      <Card title="Tickets">
+        <ul className="divide-y divide-rule">
+          {tickets.map((t) => (
+            <li key={t.id} className="flex min-h-11 items-center justify-between gap-3 py-1">
+              <Link className="font-semibold text-steel underline" to={`/rinks/${rink.slug}/tickets/${t.id}`}>
+                Ticket {t.number}
+              </Link>
+              <span className="text-sm tabular-nums">
+                {STATE_WORDS[t.state]} · {formatDateTime(t.droppedAt, rink.timeZone)}
+              </span>
+            </li>
+          ))}
+          {tickets.length === 0 ? <li className="py-2 text-ink-soft">No tickets yet.</li> : null}
+        </ul>
+      </Card>
+    </div>
+  );
+}
