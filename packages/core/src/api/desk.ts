@@ -57,6 +57,8 @@ export const stationRow = z.object({
   precision: z.boolean(),
   wheel: wheelSummary.nullable(),
   queue: z.object({ waiting: z.number().int(), onStation: z.number().int() }),
+  /** The drift watch over the station's latest readings raises an alert (shown on the station and the counter). */
+  driftAlert: z.boolean(),
 });
 export type StationRow = z.infer<typeof stationRow>;
 export const stationList = z.object({ stations: z.array(stationRow) });
@@ -319,7 +321,7 @@ export const levelBand = z.enum(['true', 'fair', 'off']);
 export const stationDetail = z.object({
   station: stationRow,
   bands: z.object({ trueNm: nm, fairNm: nm, source: z.enum(['station', 'rink']), precision: z.boolean() }),
-  /** First readings of each blade and check readings, oldest first: the series the drift watch charts. */
+  /** The latest first readings of each blade and check readings, oldest first: the series the drift watch charts (drift.ewma is aligned with it). */
   readings: z.array(z.object({ takenAt: isoTime, readingNm: nm, band: levelBand, kind: z.enum(['sharpening', 'check']) })),
   bandMix: z.object({ true: z.number().int(), fair: z.number().int(), off: z.number().int() }),
   drift: z.object({

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, like, or } from 'drizzle-orm';
+import { and, asc, desc, eq, like, or, sql } from 'drizzle-orm';
 import { customer, scoped, skateProfile, ticket } from '@rinkwright/db';
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
@@ -12,7 +12,8 @@ export function searchCustomers(tenantId: string, q: string, limit = 25) {
         like(customer.name, text),
         like(customer.email, text),
         eq(customer.memberCode, q.toUpperCase()),
-        ...(digits.length >= 3 ? [like(customer.phone, `%${escapeLike(digits)}%`)] : []),
+        // Phones are stored as they were typed ("(555) 013-4477"), so both sides are compared as digits only.
+        ...(digits.length >= 3 ? [like(sql`regexp_replace(${customer.phone}, '[^0-9]', '')`, `%${digits}%`)] : []),
       )
     : undefined;
   return scoped(tenantId).find(customer, { where, orderBy: q ? asc(customer.name) : desc(customer.createdAt), limit });

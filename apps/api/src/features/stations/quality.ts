@@ -17,6 +17,8 @@ import {
 const WINDOW = 5;
 /** The advice looks at the station's readings since its last adjustment, the most recent ones. */
 const RECENT = 30;
+/** The drift watch, its chart and the band mix cover the station's latest readings, the same on every screen. */
+export const DRIFT_WINDOW = 120;
 
 const average = (values: number[]) => values.reduce((sum, v) => sum + v, 0) / values.length;
 
@@ -29,15 +31,22 @@ export interface StationHistory {
   now: Date;
 }
 
+const driftOptions = (settings: DeskSettings) => ({ target: 0, lambda: settings.ewmaLambdaMilli / 1000, k: settings.ewmaKMilli / 1000 });
+
+export function driftAlertOf(readingsNm: number[], settings: DeskSettings): boolean {
+  return driftWatch(readingsNm, driftOptions(settings)).alert;
+}
+
 export function assessStation(h: StationHistory): StationDetail {
   const bands = bandsFor({ rink: h.settings, station: h.station, precision: h.station.precision });
   const series = h.readings.filter((r) => r.kind === 'check' || r.attempt === 1);
-  const values = series.map((r) => r.readingNm);
-  const readings = series.map((r) => ({ takenAt: r.takenAt.toISOString(), readingNm: r.readingNm, kind: r.kind, band: classifyLevel(r.readingNm, bands) }));
+  const charted = series.slice(-DRIFT_WINDOW);
+  const values = charted.map((r) => r.readingNm);
+  const readings = charted.map((r) => ({ takenAt: r.takenAt.toISOString(), readingNm: r.readingNm, kind: r.kind, band: classifyLevel(r.readingNm, bands) }));
   const bandMix = { true: 0, fair: 0, off: 0 };
   for (const r of readings) bandMix[r.band] += 1;
 
-  const watch = driftWatch(values, { target: 0, lambda: h.settings.ewmaLambdaMilli / 1000, k: h.settings.ewmaKMilli / 1000 });
+  const watch = driftWatch(values, driftOptions(h.settings));
   const drift =
     watch.status === 'watching'
       ? {

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { and, asc, count, desc, eq, gte, inArray, isNull, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gte, inArray, isNull, or, sql } from 'drizzle-orm';
 import { levelReading, levelingAdjustment, scoped, sharpening, station, ticket, user, wheel, wheelEvent } from '@rinkwright/db';
 import type { StationInput } from '@rinkwright/core';
 
@@ -118,4 +118,14 @@ export function recentSharpeningTimes(tenantId: string, since: Date) {
 export async function passesOnWheelBefore(tenantId: string, wheelId: string, times: Date[]): Promise<number[]> {
   const rows = await scoped(tenantId).find(sharpening, { where: and(eq(sharpening.wheelId, wheelId), isNull(sharpening.correctsId)) });
   return times.map((t) => rows.filter((r) => r.doneAt < t).reduce((sum, r) => sum + r.passes, 0));
+}
+
+/** The latest readings the drift watch charts (first readings and check readings), oldest first. */
+export async function latestSeries(tenantId: string, stationId: string, limit: number): Promise<number[]> {
+  const rows = await scoped(tenantId).find(levelReading, {
+    where: and(eq(levelReading.stationId, stationId), or(eq(levelReading.kind, 'check'), eq(levelReading.attempt, 1))),
+    orderBy: [desc(levelReading.takenAt), desc(levelReading.id)],
+    limit,
+  });
+  return rows.map((r) => r.readingNm).reverse();
 }

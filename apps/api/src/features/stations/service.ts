@@ -12,7 +12,7 @@ import type {
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
 import { readDeskSettings, saveDeskSettings } from '../../lib/desk-settings';
-import { assessStation } from './quality';
+import { assessStation, driftAlertOf, DRIFT_WINDOW } from './quality';
 import * as repo from './repository';
 
 const NOT_FOUND = 'No such station at this rink';
@@ -48,11 +48,19 @@ async function describeWheels(tenantId: string, wheels: WheelRow[]) {
 }
 
 export async function listStations(ctx: RinkContext): Promise<{ stations: StationRow[] }> {
-  const [stations, wheels, counts] = await Promise.all([repo.listStations(ctx.tenantId), repo.currentWheels(ctx.tenantId), repo.queueCounts(ctx.tenantId)]);
-  const wheelOf = await describeWheels(ctx.tenantId, wheels);
+  const [stations, wheels, counts, settings] = await Promise.all([
+    repo.listStations(ctx.tenantId),
+    repo.currentWheels(ctx.tenantId),
+    repo.queueCounts(ctx.tenantId),
+    readDeskSettings(ctx.tenantId),
+  ]);
+  const [wheelOf, alerts] = await Promise.all([
+    describeWheels(ctx.tenantId, wheels),
+    Promise.all(stations.map(async (s) => driftAlertOf(await repo.latestSeries(ctx.tenantId, s.id, DRIFT_WINDOW), settings))),
+  ]);
   const countOf = (stationId: string, state: string) => counts.find((c) => c.stationId === stationId && c.state === state)?.n ?? 0;
   return {
-    stations: stations.map((s) => ({
+    stations: stations.map((s, i) => ({
       id: s.id,
       name: s.name,
       status: s.status,
@@ -64,6 +72,7 @@ export async function listStations(ctx: RinkContext): Promise<{ stations: Statio
       precision: s.precision,
       wheel: wheelOf.get(s.id) ?? null,
       queue: { waiting: countOf(s.id, 'waiting'), onStation: countOf(s.id, 'on_station') },
+      driftAlert: alerts[i] ?? false,
     })),
   };
 }

@@ -51,9 +51,15 @@ export function LevelScale({ readingNm, bands, unit, large = false }: { readingN
         <BandWord band={pos.band} />
       </div>
       <svg viewBox="0 0 100 14" className="mt-1 h-6 w-full" aria-hidden="true" preserveAspectRatio="none">
-        <rect x="0" y="4" width="100" height="6" fill="var(--color-band-off)" opacity="0.25" />
-        <rect x={x(-1)} y="4" width={x(1) - x(-1)} height="6" fill="var(--color-band-fair)" opacity="0.35" />
-        <rect x={x(-trueAt)} y="4" width={x(trueAt) - x(-trueAt)} height="6" fill="var(--color-band-true)" opacity="0.45" />
+        {[
+          [0, x(-1), 'off'],
+          [x(-1), x(-trueAt), 'fair'],
+          [x(-trueAt), x(trueAt), 'true'],
+          [x(trueAt), x(1), 'fair'],
+          [x(1), 100, 'off'],
+        ].map(([from, to, band], i) => (
+          <rect key={i} x={from} y="4" width={Number(to) - Number(from)} height="6" fill={`var(--color-band-${band})`} opacity={band === 'true' ? 0.55 : 0.35} />
+        ))}
         <line x1="50" y1="2" x2="50" y2="12" stroke="var(--color-ink)" strokeWidth="0.4" />
         <line x1={x(pos.signedFraction)} y1="0" x2={x(pos.signedFraction)} y2="14" stroke="var(--color-ink)" strokeWidth="1.6" />
       </svg>

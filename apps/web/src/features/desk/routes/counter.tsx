@@ -20,6 +20,18 @@ export function Component() {
   return (
     <div className="space-y-6">
       <PageHeader title="Counter" subtitle="Take skates in, and work the queue." />
+      {list
+        .filter((s) => s.driftAlert)
+        .map((s) => (
+          <div key={s.id} role="alert" className="flex flex-wrap items-center justify-between gap-3 rounded-lg border-l-4 border-brick bg-red-50 px-4 py-3">
+            <p>
+              <span className="font-bold">Drift alert on {s.name}:</span> its level readings are drifting away from level. Check it before the next pair.
+            </p>
+            <Link className="font-semibold text-steel underline" to={`/rinks/${rink.slug}/stations/${s.id}`}>
+              See the leveling advice
+            </Link>
+          </div>
+        ))}
       {can(rink, 'ticket', 'create') ? (
         <div className="grid gap-6 lg:grid-cols-[22rem_1fr]">
           <Card title="Skater">
