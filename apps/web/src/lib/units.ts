@@ -28,3 +28,13 @@ export const showLength = (nm: number | null | undefined, unit: UnitPreference, 
 /** The number as typed into a field of the rink's unit, for prefilling an input. */
 export const lengthInput = (nm: number | null | undefined, unit: UnitPreference, kind: Exclude<LengthKind, 'reading'>) =>
   nm === null || nm === undefined ? '' : formatLength(nm, unit, kind).value.replace(/"$/, '');
+
+/** Profile (rocker) radii are spoken of in feet in inch rinks (9 ft, 10 ft…) and in metres elsewhere. */
+export function radiusToNm(text: string, unit: UnitPreference): number | null {
+  const value = Number(text.replace(',', '.').trim());
+  if (!Number.isFinite(value) || value <= 0) return null;
+  return unit === 'in' ? inchesToNm(value * 12) : mmToNm(value * 1000);
+}
+
+export const showRadius = (nm: number, unit: UnitPreference) =>
+  unit === 'in' ? `${Number((nm / 25_400_000 / 12).toFixed(1))} ft` : `${Number((nm / 1_000_000_000).toFixed(2))} m`;

@@ -5,11 +5,12 @@ import { Button } from '../../../components/ui/button';
 import { Alert, Loading } from '../../../components/ui/feedback';
 import { TextField } from '../../../components/ui/field';
 import { Card, PageHeader } from '../../../components/ui/layout';
+import { MemberQr } from '../../../components/ui/member-qr';
 import { NotFound } from '../../../components/ui/not-found';
 import { ApiError } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { can, useRink } from '../../../lib/rink-context';
-import { parseLength, showLength } from '../../../lib/units';
+import { parseLength, radiusToNm, showLength, showRadius } from '../../../lib/units';
 import { useAddProfile } from '../api/add-profile';
 import { useCustomer } from '../api/get-customer';
 import { HollowField } from '../components/hollow-field';
@@ -21,10 +22,11 @@ function AddProfile({ slug, customerId, unit }: { slug: string; customerId: stri
   const [width, setWidth] = useState('');
   const [hollowNm, setHollowNm] = useState<number | null>(null);
   const [notes, setNotes] = useState('');
+  const [radius, setRadius] = useState('');
   const [problem, setProblem] = useState('');
   async function submit() {
     setProblem('');
-    const input: SkateProfileInput = { label, bladeWidthNm: width ? parseLength(width, unit) : null, preferredHollowNm: hollowNm, profileRadiusNm: null, notes: notes || null };
+    const input: SkateProfileInput = { label, bladeWidthNm: width ? parseLength(width, unit) : null, preferredHollowNm: hollowNm, profileRadiusNm: radius ? radiusToNm(radius, unit) : null, notes: notes || null };
     try {
       await add.mutateAsync(input);
       setLabel('');
@@ -36,12 +38,13 @@ function AddProfile({ slug, customerId, unit }: { slug: string; customerId: stri
     }
   }
   return (
-    <form className="grid gap-3 sm:grid-cols-4 sm:items-end" onSubmit={(e) => (e.preventDefault(), void submit())} aria-label="Add a skate profile">
+    <form className="grid gap-3 sm:grid-cols-5 sm:items-end" onSubmit={(e) => (e.preventDefault(), void submit())} aria-label="Add a skate profile">
       <TextField label="Label" placeholder="e.g. Game skates" value={label} onChange={(e) => setLabel(e.target.value)} />
       <TextField label={`Blade width (${unit})`} value={width} onChange={(e) => setWidth(e.target.value)} inputMode="decimal" />
       <HollowField label="Preferred hollow" valueNm={hollowNm} onChange={setHollowNm} unit={unit} />
+      <TextField label={`Profile radius (${unit === 'in' ? 'ft' : 'm'})`} value={radius} onChange={(e) => setRadius(e.target.value)} inputMode="decimal" />
       <TextField label="Notes" value={notes} onChange={(e) => setNotes(e.target.value)} />
-      <div className="sm:col-span-4">
+      <div className="sm:col-span-5">
         <Alert>{problem}</Alert>
       </div>
       <Button type="submit" busy={add.isPending}>
@@ -71,11 +74,18 @@ export function Component() {
           </>
         }
       />
+      <Card title="Member code">
+        <div className="flex flex-wrap items-center gap-6">
+          <MemberQr code={customer.memberCode} />
+          <p className="max-w-md text-sm text-ink-soft">The skater can show this code (it is also in their portal); scanning it or typing it in the counter's search finds them at once.</p>
+        </div>
+      </Card>
       <Card title="Skate profiles">
         <ul className="mb-4 divide-y divide-rule">
           {profiles.map((p) => (
             <li key={p.id} className="py-2">
               <span className="font-semibold">{p.label}</span> · blade {showLength(p.bladeWidthNm, unit, 'width')} · hollow {showLength(p.preferredHollowNm, unit, 'hollow')}
+              {p.profileRadiusNm ? ` · profile ${showRadius(p.profileRadiusNm, unit)}` : ''}
               {p.notes ? <span className="block text-sm text-ink-soft">{p.notes}</span> : null}
             </li>
           ))}

@@ -1,6 +1,7 @@
 import { Link } from 'react-router';
 import { ROLE_LABELS } from '@rinkwright/core';
 import { LinkButton } from '../../../components/ui/button';
+import { MemberQr } from '../../../components/ui/member-qr';
 import { Card, PageHeader } from '../../../components/ui/layout';
 import { useMe } from '../../../lib/session';
 
@@ -43,8 +44,9 @@ export function Component() {
               {me.customerOf.map((c) => (
                 <li key={c.slug} className="flex min-h-14 items-center justify-between gap-3 py-2">
                   <span className="font-semibold">{c.name}</span>
-                  <span className="text-sm">
-                    Member code <span className="font-mono text-base font-bold tracking-wider">{c.memberCode}</span>
+                  <span className="flex items-center gap-3 text-sm">
+                    Member code
+                    <MemberQr code={c.memberCode} size={88} />
                   </span>
                 </li>
               ))}
