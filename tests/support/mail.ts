@@ -31,7 +31,7 @@ export async function waitForMail(
   address: string,
   options: { subject?: RegExp; count?: number; timeoutMs?: number } = {},
 ): Promise<CapturedMail> {
-  const { subject, count = 1, timeoutMs = 10_000 } = options;
+  const { subject, count = 1, timeoutMs = 20_000 } = options;
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const found = await mailTo(address, subject);

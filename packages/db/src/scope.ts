@@ -53,6 +53,8 @@ export interface Scope {
   findOne<T extends MySqlTable>(table: T, where: SQL): Promise<Row<T> | undefined>;
   findJoined<F extends Fields>(table: MySqlTable, options: FindOptions & { fields: F; joins: Join[] }): Promise<Picked<F>[]>;
   count(table: MySqlTable, where?: SQL): Promise<number>;
+  /** Inside a transaction: reads the matching rows and holds their row locks until it ends (SELECT … FOR UPDATE). */
+  lock<T extends MySqlTable>(table: T, where: SQL): Promise<Row<T>[]>;
   insert<T extends MySqlTable>(table: T, values: NewTenantRow<T> | NewTenantRow<T>[]): Promise<void>;
   update<T extends MySqlTable>(table: T, set: Partial<NewRow<T>>, where: SQL): Promise<number>;
   remove(table: MySqlTable, where: SQL): Promise<number>;
@@ -120,6 +122,10 @@ export function scoped(tenantId: string, executor?: Executor): Scope {
       let query = exec().select(options.fields).from(table).$dynamic() as unknown as Chain;
       for (const join of options.joins) query = query.innerJoin(join.table, joinOn(join));
       return (await finish(query.where(filter(table, options.where)), options)) as never;
+    },
+
+    async lock(table, where) {
+      return (await exec().select().from(table as MySqlTable).where(filter(table, where)).for('update')) as never;
     },
 
     async count(table, where) {

@@ -102,7 +102,8 @@ export const deskSettings = z
   })
   .refine((s) => s.trueNm <= s.fairNm, { message: 'The fair limit must be at least the true limit', path: ['fairNm'] })
   .refine((s) => s.precisionTrueNm <= s.precisionFairNm, { message: 'The fair limit must be at least the true limit', path: ['precisionFairNm'] })
-  .refine((s) => s.precisionFairNm <= s.fairNm, { message: 'Precision limits are the tighter ones', path: ['precisionFairNm'] });
+  .refine((s) => s.precisionFairNm <= s.fairNm, { message: 'Precision limits are the tighter ones', path: ['precisionFairNm'] })
+  .refine((s) => s.precisionTrueNm <= s.trueNm, { message: 'Precision limits are the tighter ones', path: ['precisionTrueNm'] });
 export type DeskSettings = z.infer<typeof deskSettings>;
 
 // ---- services --------------------------------------------------------------------------------------------

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { and, asc, count, desc, eq, gte, inArray, isNull, or, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gte, inArray, isNull, or } from 'drizzle-orm';
 import { levelReading, levelingAdjustment, scoped, sharpening, station, ticket, user, wheel, wheelEvent } from '@rinkwright/db';
 import type { StationInput } from '@rinkwright/core';
 
@@ -24,16 +24,23 @@ export const currentWheels = (tenantId: string) => scoped(tenantId).find(wheel, 
 export const wheelEvents = (tenantId: string, wheelIds: string[]) =>
   wheelIds.length === 0 ? Promise.resolve([]) : scoped(tenantId).find(wheelEvent, { where: inArray(wheelEvent.wheelId, wheelIds), orderBy: asc(wheelEvent.at) });
 
-/** Passes ground on each wheel so far: the sum over its sharpenings (corrections replace, not add). */
+/**
+ * Passes ground on each wheel so far: each logged pair counts once, with the passes of its latest correction
+ * when it was corrected (a correction replaces the record's numbers, it is not another pair).
+ */
 export async function passesByWheel(tenantId: string, wheelIds: string[]): Promise<Map<string, number>> {
   if (wheelIds.length === 0) return new Map();
-  const rows = await scoped(tenantId).findJoined(sharpening, {
-    fields: { wheelId: sharpening.wheelId, passes: sql<number>`sum(${sharpening.passes})`.mapWith(Number) },
-    joins: [],
-    where: and(inArray(sharpening.wheelId, wheelIds), isNull(sharpening.correctsId)),
-    groupBy: [sharpening.wheelId],
-  });
-  return new Map(rows.map((r) => [r.wheelId ?? '', r.passes]));
+  const rows = await scoped(tenantId).find(sharpening, { where: inArray(sharpening.wheelId, wheelIds), orderBy: [asc(sharpening.createdAt), asc(sharpening.id)] });
+  const totals = new Map<string, number>();
+  for (const [wheelId, passes] of effectivePasses(rows)) totals.set(wheelId, (totals.get(wheelId) ?? 0) + passes);
+  return totals;
+}
+
+/** Per original sharpening, its wheel and its passes as last corrected, with the time the pair was done. */
+function effectivePasses(rows: (typeof sharpening.$inferSelect)[]): [string, number, Date][] {
+  const latest = new Map<string, number>();
+  for (const r of rows) if (r.correctsId) latest.set(r.correctsId, r.passes);
+  return rows.filter((r) => !r.correctsId && r.wheelId).map((r) => [r.wheelId as string, latest.get(r.id) ?? r.passes, r.doneAt]);
 }
 
 export async function queueCounts(tenantId: string) {
@@ -116,8 +123,8 @@ export function recentSharpeningTimes(tenantId: string, since: Date) {
 
 /** Passes ground on a wheel before a time: what the wheel had done when a dressing measured it. */
 export async function passesOnWheelBefore(tenantId: string, wheelId: string, times: Date[]): Promise<number[]> {
-  const rows = await scoped(tenantId).find(sharpening, { where: and(eq(sharpening.wheelId, wheelId), isNull(sharpening.correctsId)) });
-  return times.map((t) => rows.filter((r) => r.doneAt < t).reduce((sum, r) => sum + r.passes, 0));
+  const rows = effectivePasses(await scoped(tenantId).find(sharpening, { where: eq(sharpening.wheelId, wheelId), orderBy: asc(sharpening.createdAt) }));
+  return times.map((t) => rows.filter(([, , doneAt]) => doneAt < t).reduce((sum, [, passes]) => sum + passes, 0));
 }
 
 /** The latest readings the drift watch charts (first readings and check readings), oldest first. */

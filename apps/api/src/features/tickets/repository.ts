@@ -191,9 +191,8 @@ export async function insertSharpening(
   input: { ticketId: string; newPair?: Omit<NewPair, 'position'>; sharpening: NewSharpening; readings: NewReading[] },
 ): Promise<'logged' | 'already_logged' | 'closed'> {
   return scoped(tenantId).transaction(async (tx: Scope) => {
-    // Writes nothing new; the driver counts matched rows, so an open ticket always answers 1.
-    const claimed = await tx.update(ticket, { id: input.ticketId }, and(eq(ticket.id, input.ticketId), inArray(ticket.state, ['waiting', 'on_station']))!);
-    if (claimed === 0) return 'closed';
+    const [open] = await tx.lock(ticket, and(eq(ticket.id, input.ticketId), inArray(ticket.state, ['waiting', 'on_station']))!);
+    if (!open) return 'closed';
     if (input.newPair) {
       const [last] = await tx.findJoined(ticketPair, { fields: { n: max(ticketPair.position) }, joins: [], where: eq(ticketPair.ticketId, input.ticketId) });
       await tx.insert(ticketPair, { ...input.newPair, position: (last?.n ?? 0) + 1 });

@@ -24,6 +24,8 @@ const ALREADY_LOGGED = 'This pair is already logged: add a re-run reading or a c
 const PACE_DAYS = 28;
 /** A gap longer than this between two pairs at a station is a break, not the time one pair took. */
 const LONGEST_PAIR_MINUTES = 45;
+/** Shorter gaps are rows of a batch typed in after the work, not the time a pair took. */
+const SHORTEST_PAIR_MINUTES = 2;
 
 /** Where a ticket may go from each state; everything else is refused. */
 const NEXT: Record<TicketState, TicketState[]> = {
@@ -49,7 +51,7 @@ async function stationPaces(tenantId: string, now: Date) {
     const [a, b] = [rows[i - 1], rows[i]];
     if (!a || !b || a.stationId !== b.stationId) continue;
     const minutes = (b.doneAt.getTime() - a.doneAt.getTime()) / 60_000;
-    if (minutes > 0 && minutes <= LONGEST_PAIR_MINUTES) gaps.set(b.stationId, [...(gaps.get(b.stationId) ?? []), minutes]);
+    if (minutes >= SHORTEST_PAIR_MINUTES && minutes <= LONGEST_PAIR_MINUTES) gaps.set(b.stationId, [...(gaps.get(b.stationId) ?? []), minutes]);
   }
   return gaps;
 }
