@@ -4,8 +4,7 @@ import type { StaffRole } from '@rinkwright/core';
 
 // Every permission a rink role can hold, defined once. better-auth's organization plugin checks its own
 // endpoints (invitations) with these roles, and our route table checks every rink route with them too.
-export const statements = {
-  ...defaultStatements,
+const rinkStatements = {
   rink: ['read', 'update'],
   member: ['read', 'create', 'update', 'delete'],
   invitation: ['read', 'create', 'cancel'],
@@ -14,19 +13,14 @@ export const statements = {
   service: ['read', 'manage'],
   ticket: ['read', 'create', 'work'],
 } as const;
+
+export const statements = { ...defaultStatements, ...rinkStatements } as const;
 
 export const ac = createAccessControl(statements);
 
 const staffRead = { rink: ['read'], customer: ['read'], station: ['read'], service: ['read'] } as const;
-const manage = {
-  rink: ['read', 'update'],
-  member: ['read', 'create', 'update', 'delete'],
-  invitation: ['read', 'create', 'cancel'],
-  customer: ['read', 'create', 'update'],
-  station: ['read', 'manage', 'upkeep'],
-  service: ['read', 'manage'],
-  ticket: ['read', 'create', 'work'],
-} as const;
+/** Owners and managers hold every rink permission. */
+const manage = rinkStatements;
 
 export const roles = {
   owner: ac.newRole({ organization: ['update', 'delete'], ...manage }),
