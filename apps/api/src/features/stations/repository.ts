@@ -66,7 +66,8 @@ export async function mountWheel(
     const { eventIds, hollowNm, byUserId, ...rest } = input;
     await tx.insert(wheel, { ...rest, mountedAt: now, mountedBy: byUserId });
     await tx.insert(wheelEvent, { id: eventIds[0], wheelId: input.id, stationId: input.stationId, kind: 'mount', diameterNm: input.diameterNewNm, at: now, byUserId });
-    await tx.insert(wheelEvent, { id: eventIds[1], wheelId: input.id, stationId: input.stationId, kind: 'dressing', hollowNm, diameterNm: input.diameterNewNm, at: now, byUserId });
+    // A millisecond after the mount, so the wheel log lists the mount first.
+    await tx.insert(wheelEvent, { id: eventIds[1], wheelId: input.id, stationId: input.stationId, kind: 'dressing', hollowNm, diameterNm: input.diameterNewNm, at: new Date(now.getTime() + 1), byUserId });
   });
 }
 

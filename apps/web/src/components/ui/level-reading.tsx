@@ -27,7 +27,8 @@ export function BandIcon({ band, size = 16 }: { band: keyof typeof BAND; size?: 
 
 export function BandWord({ band }: { band: keyof typeof BAND }) {
   return (
-    <span className="inline-flex items-center gap-1 font-semibold" style={{ color: BAND[band].color }}>
+    // The colour is on the shape; the word stays in ink, so it keeps AA contrast whatever the band.
+    <span className="inline-flex items-center gap-1 font-semibold text-ink">
       <BandIcon band={band} />
       {BAND[band].word}
     </span>
@@ -46,7 +47,7 @@ export function LevelScale({ readingNm, bands, unit, large = false }: { readingN
     <figure className="w-full" aria-label={`Level reading ${shown.value} ${shown.unit}, ${BAND[pos.band].word}`}>
       <div className="flex items-baseline justify-between gap-3">
         <span className={`font-bold tabular-nums ${large ? 'text-4xl' : 'text-xl'}`}>
-          {shown.value} <span className="text-sm font-medium text-ink-soft">{unit === 'in' ? 'thou' : '0.01 mm'}</span>
+          {shown.value} <span className="text-sm font-medium text-ink-soft">{unit === 'in' ? 'thou' : 'hundredths mm'}</span>
         </span>
         <BandWord band={pos.band} />
       </div>

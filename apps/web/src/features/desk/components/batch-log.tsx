@@ -4,7 +4,7 @@ import { Alert } from '../../../components/ui/feedback';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { Card } from '../../../components/ui/layout';
 import { useServices } from '../../../lib/queries/services';
-import { lengthInput, parseLength } from '../../../lib/units';
+import { lengthInput, parseLength, readingUnitLabel } from '../../../lib/units';
 import { useCounterWrite, writes } from '../api/counter-writes';
 import { HollowField } from './hollow-field';
 import { buildLog, StationSelect, type LogDefaults } from './log-pair-form';
@@ -68,8 +68,8 @@ export function BatchLog({ rink, ticketId, stations, defaults, startAt }: { rink
       <form onSubmit={(e) => e.preventDefault()} aria-label="Batch row" className="grid items-end gap-3 sm:grid-cols-[8rem_1fr_1fr_1fr]">
         <p className="pb-3 text-lg font-bold">{label}</p>
         <TextField ref={first} data-row label="Passes" value={row.passes} onChange={(e) => setRow({ ...row, passes: e.target.value })} onKeyDown={enter} inputMode="numeric" />
-        <TextField data-row label={`Left (${unit === 'in' ? 'thou' : '0.01 mm'})`} value={row.left} onChange={(e) => setRow({ ...row, left: e.target.value })} onKeyDown={enter} inputMode="decimal" />
-        <TextField data-row label={`Right (${unit === 'in' ? 'thou' : '0.01 mm'})`} value={row.right} onChange={(e) => setRow({ ...row, right: e.target.value })} onKeyDown={enter} inputMode="decimal" />
+        <TextField data-row label={`Left (${readingUnitLabel(unit)})`} value={row.left} onChange={(e) => setRow({ ...row, left: e.target.value })} onKeyDown={enter} inputMode="decimal" />
+        <TextField data-row label={`Right (${readingUnitLabel(unit)})`} value={row.right} onChange={(e) => setRow({ ...row, right: e.target.value })} onKeyDown={enter} inputMode="decimal" />
       </form>
       <div className="mt-3 flex items-center justify-between gap-3">
         <Alert>{problem}</Alert>

@@ -1,0 +1,1 @@
+export const servicesPath = (slug: string, rest = '') => `/api/rinks/${encodeURIComponent(slug)}/services${rest}`;
