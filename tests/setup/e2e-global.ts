@@ -57,6 +57,9 @@ export default async function setup(project: TestProject) {
       SMTP_HOST: '127.0.0.1',
       SMTP_PORT: String(settings.SMTP_PORT),
       LOG_LEVEL: 'warn',
+      // Every browser test comes from one address; the limiters have their own integration tests.
+      AUTH_RATE_LIMIT_MAX: '100000',
+      API_RATE_LIMIT_MAX: '100000',
     },
     stdio: ['ignore', 'inherit', 'inherit'],
   });

@@ -26,7 +26,8 @@ type Answered = (write: PendingWrite, result: unknown) => void;
 const store = typeof indexedDB === 'undefined' ? undefined : createStore('rinkwright', 'outbox');
 let pending: PendingWrite[] = [];
 let loaded: Promise<void> | undefined;
-let flushing: Promise<void> | undefined;
+/** Passes over the outbox run one after another; each call to flush() queues one that starts after it was called. */
+let passes: Promise<void> = Promise.resolve();
 const listeners = new Set<Listener>();
 const answeredListeners = new Set<Answered>();
 const waiters = new Map<string, { resolve: (v: unknown) => void; reject: (e: unknown) => void }>();
@@ -53,33 +54,33 @@ const shouldRetry = (e: unknown) => isNetworkError(e) || (e instanceof ApiError 
 
 /** Sends every waiting write, oldest first; stops at the first that cannot get through, to keep their order. */
 export function flush(): Promise<void> {
-  flushing ??= (async () => {
+  // Chained rather than shared: a pass already running took its list before a newer write was saved, so the
+  // newer write needs a pass of its own.
+  passes = passes.then(sendPending, sendPending);
+  return passes;
+}
+
+async function sendPending(): Promise<void> {
+  await load();
+  for (const write of [...pending]) {
+    if (write.refused) continue;
     try {
-      await load();
-      for (const write of [...pending]) {
-        if (write.refused) continue;
-        try {
-          const result = await api(write.path, { method: write.method, body: write.body, headers: { 'Idempotency-Key': write.key } });
-          if (store) await del(write.key, store);
-          publish(pending.filter((p) => p.key !== write.key));
-          for (const l of answeredListeners) l(write, result);
-          waiters.get(write.key)?.resolve(result);
-          waiters.delete(write.key);
-        } catch (error) {
-          if (shouldRetry(error)) break;
-          // Refused for good (a 4xx): keep it visible so nothing disappears silently, but do not resend.
-          const refused = { ...write, refused: error instanceof Error ? error.message : 'Refused' };
-          if (store) await set(write.key, refused, store);
-          publish(pending.map((p) => (p.key === write.key ? refused : p)));
-          waiters.get(write.key)?.reject(error);
-          waiters.delete(write.key);
-        }
-      }
-    } finally {
-      flushing = undefined;
+      const result = await api(write.path, { method: write.method, body: write.body, headers: { 'Idempotency-Key': write.key } });
+      if (store) await del(write.key, store);
+      publish(pending.filter((p) => p.key !== write.key));
+      for (const l of answeredListeners) l(write, result);
+      waiters.get(write.key)?.resolve(result);
+      waiters.delete(write.key);
+    } catch (error) {
+      if (shouldRetry(error)) break;
+      // Refused for good (a 4xx): keep it visible so nothing disappears silently, but do not resend.
+      const refused = { ...write, refused: error instanceof Error ? error.message : 'Refused' };
+      if (store) await set(write.key, refused, store);
+      publish(pending.map((p) => (p.key === write.key ? refused : p)));
+      waiters.get(write.key)?.reject(error);
+      waiters.delete(write.key);
     }
-  })();
-  return flushing;
+  }
 }
 
 /**
