@@ -1,6 +1,6 @@
 import path from 'node:path';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
-import { afterAll, beforeAll, expect, inject } from 'vitest';
+import { afterAll, beforeAll, expect, inject, onTestFailed } from 'vitest';
 
 // Debian's Chromium, driven by playwright-core; never a downloaded browser.
 async function launchBrowser(): Promise<Browser> {
@@ -56,6 +56,10 @@ export async function openSession(browser: Browser, label: string): Promise<Sess
     }
   });
   let n = 0;
+  // What the page showed when a test failed, to read beside the error.
+  onTestFailed(async () => {
+    await page.screenshot({ path: path.join(inject('artifacts'), 'screenshots', `${label}-FAILED.png`), fullPage: true }).catch(() => undefined);
+  });
   return {
     context,
     page,
