@@ -28,7 +28,7 @@ async function takeIn(session: Session, skater: string, extraPairs = 0) {
   await page.getByLabel('Find a skater').fill(skater);
   // The list shows the newest skaters until the search answers: wait for the one asked for.
   await page.getByRole('list', { name: 'Matching skaters' }).getByRole('button', { name: new RegExp(skater) }).first().click();
-  await page.getByRole('link', { name: new RegExp(skater) }).waitFor();
+  await page.getByRole('region', { name: 'Skater' }).getByRole('link', { name: new RegExp(skater) }).waitFor();
   await page.getByRole('button', { name: '+ Another pair' }).click();
   for (let i = 0; i < extraPairs; i++) await page.getByRole('button', { name: '+ Another pair' }).click();
   await page.getByText(/^Promise:/).waitFor();
