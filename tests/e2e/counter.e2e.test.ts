@@ -163,4 +163,33 @@ describe('the counter', () => {
     expectNoProblems(session, { networkCut: true });
     await session.context.close();
   });
+
+  it("keeps a skater's profiles and shows their member code as a QR code", async () => {
+    const session = await openSession(browser(), 'customer');
+    const { page } = session;
+    await signIn(session, 'tech@ice-harbor.test');
+    await page.waitForURL('**/rinks/ice-harbor');
+    await page.goto('/rinks/ice-harbor/counter');
+    await page.getByLabel('Find a skater').fill('Castellane');
+    await page.getByRole('list', { name: 'Matching skaters' }).getByRole('button', { name: /Castellane/ }).click();
+    await page.getByRole('region', { name: 'Skater' }).getByRole('link', { name: /Castellane/ }).click();
+    await page.getByRole('img', { name: /QR code of member code/ }).waitFor();
+
+    const add = page.getByRole('form', { name: 'Add a skate profile' });
+    await add.getByLabel('Label').fill('Beer-league skates');
+    await add.getByLabel('Blade width (in)').fill('0.1181');
+    await add.getByLabel('Preferred hollow').selectOption({ label: '5/8"' });
+    await add.getByLabel('Profile radius (ft)').fill('10');
+    await add.getByRole('button', { name: 'Add profile' }).click();
+    await page.getByText(/Beer-league skates · blade 0\.1181" · hollow 5\/8" · profile 10 ft/).waitFor();
+
+    await page.getByRole('listitem').filter({ hasText: 'Beer-league skates' }).getByRole('button', { name: 'Change' }).click();
+    const change = page.getByRole('form', { name: 'Change Beer-league skates' });
+    await change.getByLabel('Preferred hollow').selectOption({ label: '1/2"' });
+    await change.getByRole('button', { name: 'Save profile' }).click();
+    await page.getByText(/Beer-league skates · blade 0\.1181" · hollow 1\/2"/).waitFor();
+    await session.shot('customer');
+    expectNoProblems(session);
+    await session.context.close();
+  });
 });

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router';
-import type { SkateProfileInput } from '@rinkwright/core';
+import type { SkateProfileInput, SkateProfileRow } from '@rinkwright/core';
 import { Button } from '../../../components/ui/button';
 import { Alert, Loading } from '../../../components/ui/feedback';
 import { TextField } from '../../../components/ui/field';
@@ -10,24 +10,32 @@ import { NotFound } from '../../../components/ui/not-found';
 import { ApiError } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { can, useRink } from '../../../lib/rink-context';
-import { parseLength, radiusToNm, showLength, showRadius } from '../../../lib/units';
+import { lengthInput, parseLength, radiusToNm, showLength, showRadius } from '../../../lib/units';
 import { useAddProfile } from '../api/add-profile';
 import { useCustomer } from '../api/get-customer';
+import { useUpdateProfile } from '../api/update-profile';
 import { HollowField } from '../components/hollow-field';
 import { STATE_WORDS } from '../components/state-words';
 
-function AddProfile({ slug, customerId, unit }: { slug: string; customerId: string; unit: 'in' | 'mm' }) {
+/** Adds a skate profile, or changes one when `profile` is given. */
+function ProfileForm({ slug, customerId, unit, profile, onDone }: { slug: string; customerId: string; unit: 'in' | 'mm'; profile?: SkateProfileRow; onDone?: () => void }) {
   const add = useAddProfile(slug, customerId);
-  const [label, setLabel] = useState('');
-  const [width, setWidth] = useState('');
-  const [hollowNm, setHollowNm] = useState<number | null>(null);
-  const [notes, setNotes] = useState('');
-  const [radius, setRadius] = useState('');
+  const update = useUpdateProfile(slug, customerId);
+  const [label, setLabel] = useState(profile?.label ?? '');
+  const [width, setWidth] = useState(lengthInput(profile?.bladeWidthNm, unit, 'width'));
+  const [hollowNm, setHollowNm] = useState<number | null>(profile?.preferredHollowNm ?? null);
+  const [notes, setNotes] = useState(profile?.notes ?? '');
+  const [radius, setRadius] = useState(profile?.profileRadiusNm ? showRadius(profile.profileRadiusNm, unit).replace(/ (ft|m)$/, '') : '');
   const [problem, setProblem] = useState('');
   async function submit() {
     setProblem('');
     const input: SkateProfileInput = { label, bladeWidthNm: width ? parseLength(width, unit) : null, preferredHollowNm: hollowNm, profileRadiusNm: radius ? radiusToNm(radius, unit) : null, notes: notes || null };
     try {
+      if (profile) {
+        await update.mutateAsync({ profileId: profile.id, input });
+        onDone?.();
+        return;
+      }
       await add.mutateAsync(input);
       setLabel('');
       setWidth('');
@@ -38,7 +46,7 @@ function AddProfile({ slug, customerId, unit }: { slug: string; customerId: stri
     }
   }
   return (
-    <form className="grid gap-3 sm:grid-cols-5 sm:items-end" onSubmit={(e) => (e.preventDefault(), void submit())} aria-label="Add a skate profile">
+    <form className="grid gap-3 sm:grid-cols-5 sm:items-end" onSubmit={(e) => (e.preventDefault(), void submit())} aria-label={profile ? `Change ${profile.label}` : 'Add a skate profile'}>
       <TextField label="Label" placeholder="e.g. Game skates" value={label} onChange={(e) => setLabel(e.target.value)} />
       <TextField label={`Blade width (${unit})`} value={width} onChange={(e) => setWidth(e.target.value)} inputMode="decimal" />
       <HollowField label="Preferred hollow" valueNm={hollowNm} onChange={setHollowNm} unit={unit} />
@@ -47,10 +55,31 @@ function AddProfile({ slug, customerId, unit }: { slug: string; customerId: stri
       <div className="sm:col-span-5">
         <Alert>{problem}</Alert>
       </div>
-      <Button type="submit" busy={add.isPending}>
-        Add profile
+      <Button type="submit" busy={add.isPending || update.isPending}>
+        {profile ? 'Save profile' : 'Add profile'}
       </Button>
     </form>
+  );
+}
+
+function ProfileRow({ slug, customerId, unit, profile, canEdit }: { slug: string; customerId: string; unit: 'in' | 'mm'; profile: SkateProfileRow; canEdit: boolean }) {
+  const [editing, setEditing] = useState(false);
+  return (
+    <li className="py-2">
+      <div className="flex flex-wrap items-center justify-between gap-2">
+        <span>
+          <span className="font-semibold">{profile.label}</span> · blade {showLength(profile.bladeWidthNm, unit, 'width')} · hollow {showLength(profile.preferredHollowNm, unit, 'hollow')}
+          {profile.profileRadiusNm ? ` · profile ${showRadius(profile.profileRadiusNm, unit)}` : ''}
+          {profile.notes ? <span className="block text-sm text-ink-soft">{profile.notes}</span> : null}
+        </span>
+        {canEdit ? (
+          <Button tone="quiet" onClick={() => setEditing(!editing)}>
+            {editing ? 'Cancel' : 'Change'}
+          </Button>
+        ) : null}
+      </div>
+      {editing ? <ProfileForm slug={slug} customerId={customerId} unit={unit} profile={profile} onDone={() => setEditing(false)} /> : null}
+    </li>
   );
 }
 
@@ -83,15 +112,11 @@ export function Component() {
       <Card title="Skate profiles">
         <ul className="mb-4 divide-y divide-rule">
           {profiles.map((p) => (
-            <li key={p.id} className="py-2">
-              <span className="font-semibold">{p.label}</span> · blade {showLength(p.bladeWidthNm, unit, 'width')} · hollow {showLength(p.preferredHollowNm, unit, 'hollow')}
-              {p.profileRadiusNm ? ` · profile ${showRadius(p.profileRadiusNm, unit)}` : ''}
-              {p.notes ? <span className="block text-sm text-ink-soft">{p.notes}</span> : null}
-            </li>
+            <ProfileRow key={p.id} slug={rink.slug} customerId={customer.id} unit={unit} profile={p} canEdit={can(rink, 'customer', 'update')} />
           ))}
           {profiles.length === 0 ? <li className="py-2 text-ink-soft">No profile yet.</li> : null}
         </ul>
-        {can(rink, 'customer', 'update') ? <AddProfile slug={rink.slug} customerId={customer.id} unit={unit} /> : null}
+        {can(rink, 'customer', 'update') ? <ProfileForm slug={rink.slug} customerId={customer.id} unit={unit} /> : null}
       </Card>
       <Card title="Tickets">
         <ul className="divide-y divide-rule">
