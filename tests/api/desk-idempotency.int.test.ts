@@ -9,7 +9,7 @@ import { buildTestApp } from '../support/app';
 import { HALF_INCH_NM, HOCKEY_WIDTH_NM, createDesk, logBody, newKey, pair, rowsOf, takeIn, ticketBody, transition, write, type Desk, type TicketBody } from '../support/desk';
 import { mailTo, waitForMail } from '../support/mail';
 import { allTables, tableName } from '../support/schema';
-import type { Staffer } from '../support/world';
+import { createRinkWithStaff, uniqueEmail, type Staffer } from '../support/world';
 
 // Every counter write carries a client-made key: a repeat gets the first answer, a reuse for another request is
 // refused, a refused write gives the key back, and two presses at once write once. The list of routes comes from
@@ -17,7 +17,7 @@ import type { Staffer } from '../support/world';
 
 const api = buildTestApp();
 const as = (staffer: Staffer) => api.signIn(staffer.email, staffer.password);
-const idempotentRoutes = api.routes.filter((r) => r.idempotent);
+const idempotentRoutes = api.routes.filter((r) => r.idempotent === true);
 const keyOf = (route: Route) => `${route.method} ${route.path}`;
 
 const ticketsPath = (desk: Desk) => `/api/rinks/${desk.world.slug}/tickets`;
@@ -293,5 +293,27 @@ describe('two requests with one key at once', () => {
     ]).toContainEqual(statuses);
     if (statuses[1] === 201) expect(answers[1]?.body).toEqual(answers[0]?.body);
     expect(await rowsOf(sharpening, desk.world.id)).toBe(1);
+  });
+});
+
+describe('walk-ups and skate profiles (a key is honoured when sent, not required)', () => {
+  it('makes one walk-up for a repeated key, and still takes a walk-up without a key', async () => {
+    const world = await createRinkWithStaff('Optional Keys');
+    const agent = await api.signIn(world.staff.technician.email, world.staff.technician.password);
+    const path = `/api/rinks/${world.slug}/customers`;
+    const key = newKey();
+
+    const first = await agent.post(path).set('Idempotency-Key', key).send({ name: 'Once Only', phone: '555-0101' });
+    const again = await agent.post(path).set('Idempotency-Key', key).send({ name: 'Once Only', phone: '555-0101' });
+    const other = await agent.post(path).set('Idempotency-Key', key).send({ name: 'Someone Else', phone: '555-0102' });
+    const keyless = await agent.post(path).send({ name: 'No Key', email: uniqueEmail('nokey') });
+
+    expect(first.status).toBe(201);
+    expect(again.status).toBe(201);
+    expect(again.body).toEqual(first.body);
+    expect(other.status).toBe(422);
+    expect(keyless.status).toBe(201);
+    const found = await agent.get(`${path}?q=Once Only`);
+    expect(found.body.customers).toHaveLength(1);
   });
 });

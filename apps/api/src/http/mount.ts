@@ -43,7 +43,8 @@ export function mountRoutes(app: Express, routes: Route[], auth: Auth): void {
   for (const route of routes) {
     app[route.method](route.path, async (req, res) => {
       const ctx = await contextFor(route, auth, req);
-      if (route.idempotent) idempotencyKeyOf(req);
+      const keyed = route.idempotent === true || (route.idempotent === 'optional' && req.get('idempotency-key') !== undefined);
+      if (keyed) idempotencyKeyOf(req);
       const params = parsePart(route.params, req.params, 'params');
       const query = parsePart(route.query, req.query, 'query');
       const body = parsePart(route.body, req.body, 'body');
@@ -54,7 +55,7 @@ export function mountRoutes(app: Express, routes: Route[], auth: Auth): void {
         return { status: res.statusCode === 200 ? route.status : res.statusCode, body: route.response.parse(result) };
       };
       let answer: StoredAnswer;
-      if (route.idempotent) {
+      if (keyed) {
         const key = idempotencyKeyOf(req);
         const { tenantId } = ctx as RinkContext;
         answer = await once(tenantId, key, `${route.method} ${route.path}`, requestHash(route.path, params, body), run);

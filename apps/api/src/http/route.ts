@@ -43,8 +43,11 @@ export interface RouteSpec<K extends AccessKind, P, Q, B, R extends Schema> {
   body?: B;
   response: R;
   status?: number;
-  /** A counter write: requires an Idempotency-Key header, and a repeat of the key gets the first answer. */
-  idempotent?: K extends 'rink' ? boolean : never;
+  /**
+   * A counter write: requires an Idempotency-Key header, and a repeat of the key gets the first answer.
+   * 'optional' honours a key when the client sends one (the web app always does) and works without one.
+   */
+  idempotent?: K extends 'rink' ? boolean | 'optional' : never;
   handle(input: {
     ctx: Contexts[K];
     params: Infer<P>;
@@ -66,7 +69,7 @@ export interface Route {
   body?: Schema;
   response: Schema;
   status: number;
-  idempotent?: boolean;
+  idempotent?: boolean | 'optional';
   handle(input: { ctx: unknown; params: unknown; query: unknown; body: unknown; req: Request; res: Response }): Promise<unknown>;
 }
 

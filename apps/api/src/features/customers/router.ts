@@ -34,6 +34,7 @@ export const customerRoutes = [
     params: rinkParams,
     body: createCustomerInput,
     response: customerRow,
+    idempotent: 'optional',
     handle: ({ ctx, body }) => customers.addCustomer(ctx, body),
   }),
   defineRoute({
@@ -55,6 +56,7 @@ export const customerRoutes = [
     params: customerParams,
     body: skateProfileInput,
     response: skateProfileRow,
+    idempotent: 'optional',
     handle: ({ ctx, params, body }) => customers.addProfile(ctx, params.customerId, body),
   }),
   defineRoute({

@@ -4,6 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { Alert } from '../../../components/ui/feedback';
 import { TextField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
+import { newKey } from '../../../lib/outbox';
 import { useCreateCustomer } from '../api/create-customer';
 import { useCustomerSearch } from '../api/search-customers';
 
@@ -22,7 +23,7 @@ export function CustomerFinder({ slug, onPick }: { slug: string; onPick: (c: Cus
     if (!name.trim()) return setProblem({ name: 'Enter a name' });
     if (!value) return setProblem({ contact: 'Enter a phone number or an e-mail, to tell them their skates are ready' });
     try {
-      const made = await create.mutateAsync(value.includes('@') ? { name, email: value } : { name, phone: value });
+      const made = await create.mutateAsync({ input: value.includes('@') ? { name, email: value } : { name, phone: value }, key: newKey() });
       setName('');
       setContact('');
       setProblem({});
