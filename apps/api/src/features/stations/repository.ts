@@ -112,14 +112,6 @@ export function adjustmentsOf(tenantId: string, stationId: string) {
   });
 }
 
-/** Minutes between consecutive sharpenings at each station, for the promise: the recent pace per pair. */
-export function recentSharpeningTimes(tenantId: string, since: Date) {
-  return scoped(tenantId).findJoined(sharpening, {
-    fields: { stationId: sharpening.stationId, technicianId: sharpening.technicianId, doneAt: sharpening.doneAt },
-    joins: [],
-    where: and(gte(sharpening.doneAt, since), isNull(sharpening.correctsId)),
-    orderBy: [asc(sharpening.stationId), asc(sharpening.doneAt)],
-  });
 }
 
 /** Passes ground on a wheel before a time: what the wheel had done when a dressing measured it. */
