@@ -112,8 +112,6 @@ export function adjustmentsOf(tenantId: string, stationId: string) {
   });
 }
 
-}
-
 /** Passes ground on a wheel before a time: what the wheel had done when a dressing measured it. */
 export async function passesOnWheelBefore(tenantId: string, wheelId: string, times: Date[]): Promise<number[]> {
   const rows = effectivePasses(await scoped(tenantId).find(sharpening, { where: eq(sharpening.wheelId, wheelId), orderBy: asc(sharpening.createdAt) }));
