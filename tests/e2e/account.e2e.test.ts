@@ -15,6 +15,8 @@ describe('account upkeep', () => {
     const { page } = session;
     await page.goto('/sign-in');
     await page.getByRole('link', { name: 'Forgot your password?' }).click();
+    // Both pages have an E-mail field: wait for the new one before typing.
+    await page.getByRole('heading', { name: 'Reset your password' }).waitFor();
     await page.getByLabel('E-mail').fill(EMAIL);
     await session.shot('forgot');
     await page.getByRole('button', { name: 'Send the reset link' }).click();
