@@ -184,20 +184,33 @@ export async function moveTicket(
 /**
  * Logs a pair in one transaction that first takes the ticket's row lock, so two tablets logging on one ticket at
  * once take turns: the second sees the first's pair and sharpening before it decides a new pair's position or
- * whether the named pair is done. The ticket must still be open for work.
+ * whether the named pair is done. The ticket must still be open for work. Logging at a station puts the ticket on
+ * that station (as the technician would by hand), in the same transaction, so a refused log moves nothing.
  */
 export async function insertSharpening(
   tenantId: string,
-  input: { ticketId: string; newPair?: Omit<NewPair, 'position'>; sharpening: NewSharpening; readings: NewReading[] },
+  input: {
+    ticketId: string;
+    putOn: { stationId: string; at: Date; byUserId: string };
+    newPair?: Omit<NewPair, 'position'>;
+    sharpening: NewSharpening;
+    readings: NewReading[];
+  },
 ): Promise<'logged' | 'already_logged' | 'closed'> {
   return scoped(tenantId).transaction(async (tx: Scope) => {
     const [open] = await tx.lock(ticket, and(eq(ticket.id, input.ticketId), inArray(ticket.state, ['waiting', 'on_station']))!);
     if (!open) return 'closed';
+    if (!input.newPair && (await tx.count(sharpening, and(eq(sharpening.ticketPairId, input.sharpening.ticketPairId), isNull(sharpening.correctsId)))) > 0) {
+      return 'already_logged';
+    }
+    if (open.state === 'waiting' || open.stationId !== input.putOn.stationId) {
+      const { stationId, at, byUserId } = input.putOn;
+      await tx.update(ticket, { state: 'on_station', stationId, startedAt: open.startedAt ?? at }, eq(ticket.id, open.id));
+      await tx.insert(ticketEvent, { id: randomUUID(), ticketId: open.id, fromState: open.state, toState: 'on_station', stationId, reason: null, at, byUserId });
+    }
     if (input.newPair) {
       const [last] = await tx.findJoined(ticketPair, { fields: { n: max(ticketPair.position) }, joins: [], where: eq(ticketPair.ticketId, input.ticketId) });
       await tx.insert(ticketPair, { ...input.newPair, position: (last?.n ?? 0) + 1 });
-    } else if ((await tx.count(sharpening, and(eq(sharpening.ticketPairId, input.sharpening.ticketPairId), isNull(sharpening.correctsId)))) > 0) {
-      return 'already_logged';
     }
     await tx.insert(sharpening, input.sharpening);
     if (input.readings.length) await tx.insert(levelReading, input.readings);

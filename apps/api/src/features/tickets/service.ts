@@ -318,12 +318,9 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
   const now = new Date();
   const sharpeningId = randomUUID();
   const wheel = await repo.mountedWheel(ctx.tenantId, target.id);
-  if (found.state === 'waiting' || found.stationId !== target.id) {
-    // Logging a pair at a station puts the ticket on that station, as the technician would by hand.
-    await repo.moveTicket(ctx.tenantId, ticketId, found.state, { state: 'on_station', stationId: target.id, startedAt: found.startedAt ?? now }, { stationId: target.id, reason: null, at: now, byUserId: ctx.userId });
-  }
   const outcome = await repo.insertSharpening(ctx.tenantId, {
     ticketId,
+    putOn: { stationId: target.id, at: now, byUserId: ctx.userId },
     newPair,
     sharpening: {
       id: sharpeningId,
