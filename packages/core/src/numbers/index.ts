@@ -6,3 +6,4 @@ export * from './drift';
 export * from './wheel';
 export * from './queue';
 export * from './throughput';
+export * from './credits';
