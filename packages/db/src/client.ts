@@ -53,3 +53,9 @@ export async function pingDb(): Promise<boolean> {
     return false;
   }
 }
+
+/** A unique-key violation from MariaDB, whether mysql2's error or Drizzle's wrapper around it. */
+export function isDuplicateKey(error: unknown): boolean {
+  const e = error as { code?: unknown; cause?: { code?: unknown } } | null;
+  return e?.code === 'ER_DUP_ENTRY' || e?.cause?.code === 'ER_DUP_ENTRY';
+}

@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { Request } from 'express';
 import { eq } from 'drizzle-orm';
-import { idempotencyKey, scoped } from '@rinkwright/db';
+import { idempotencyKey, isDuplicateKey, scoped } from '@rinkwright/db';
 import { AppError } from '../http/errors';
 
 // Every write from the counter carries a key the client made. The first request with a key claims it (an
@@ -9,7 +9,6 @@ import { AppError } from '../http/errors';
 // body gets that answer again; the same key with another body is refused. Keys are kept per rink.
 
 const KEY = /^[\w-]{8,100}$/;
-const DUPLICATE = 'ER_DUP_ENTRY';
 
 export interface StoredAnswer {
   status: number;
@@ -34,7 +33,7 @@ export async function once(tenantId: string, key: string, route: string, hash: s
   try {
     await scope.insert(idempotencyKey, { key, route, requestHash: hash, statusCode: 0, responseBody: '' });
   } catch (error) {
-    if ((error as { cause?: { code?: string } }).cause?.code !== DUPLICATE && (error as { code?: string }).code !== DUPLICATE) throw error;
+    if (!isDuplicateKey(error)) throw error;
     const first = await scope.findOne(idempotencyKey, where);
     if (!first) throw error;
     if (first.requestHash !== hash || first.route !== route) {

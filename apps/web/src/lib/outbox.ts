@@ -46,8 +46,14 @@ function load(): Promise<void> {
   return loaded;
 }
 
-/** A new key per user action: made once when the action is taken, and reused by every resend of it. */
-export const newKey = () => `w-${crypto.randomUUID()}`;
+/**
+ * A new key per user action: made once when the action is taken, and reused by every resend of it. randomUUID
+ * exists only in secure contexts; a counter tablet on a plain-http LAN address still needs a key.
+ */
+export function newKey(): string {
+  if (typeof crypto.randomUUID === 'function') return `w-${crypto.randomUUID()}`;
+  return `w-${Array.from(crypto.getRandomValues(new Uint8Array(16)), (b) => b.toString(16).padStart(2, '0')).join('')}`;
+}
 
 const isNetworkError = (e: unknown) => e instanceof ApiError && e.code === 'network';
 const shouldRetry = (e: unknown) => isNetworkError(e) || (e instanceof ApiError && (e.status >= 500 || e.status === 409 && /still running/.test(e.message)));

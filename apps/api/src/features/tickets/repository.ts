@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { and, asc, count, desc, eq, gte, inArray, isNull, max, sql } from 'drizzle-orm';
 import {
   customer,
+  isDuplicateKey,
   levelReading,
   scoped,
   serviceItem,
@@ -21,7 +22,6 @@ export type TicketRow = typeof ticket.$inferSelect;
 type NewPair = Omit<typeof ticketPair.$inferInsert, 'tenantId'>;
 type NewSharpening = Omit<typeof sharpening.$inferInsert, 'tenantId'>;
 type NewReading = Omit<typeof levelReading.$inferInsert, 'tenantId'>;
-const DUPLICATE = 'ER_DUP_ENTRY';
 
 export const findStation = (tenantId: string, stationId: string) => scoped(tenantId).findOne(station, eq(station.id, stationId));
 export const activeStations = (tenantId: string) => scoped(tenantId).find(station, { where: eq(station.status, 'active'), orderBy: asc(station.name) });
@@ -46,8 +46,7 @@ export async function insertTicket(tenantId: string, row: Omit<TicketRow, 'tenan
         return number;
       });
     } catch (error) {
-      const code = (error as { cause?: { code?: string }; code?: string }).cause?.code ?? (error as { code?: string }).code;
-      if (code !== DUPLICATE || attempt >= 4) throw error;
+      if (!isDuplicateKey(error) || attempt >= 4) throw error;
     }
   }
 }

@@ -10,7 +10,7 @@ import { Card } from '../../../components/ui/layout';
 import { applyServerErrors } from '../../../lib/forms';
 import { can } from '../../../lib/rink-context';
 import { readingUnitLabel } from '../../../lib/units';
-import { useDeskSettings } from '../api/get-desk-settings';
+import { useDeskSettings } from '../../../lib/queries/stations';
 import { useUpdateDeskSettings } from '../api/update-desk-settings';
 import { BandName } from './band-name';
 import { converted, limitText, milliInput, milliMessage, numberMessage, readingInput, readingText, toInteger, toMilli, toReading, wholeMessage } from './typed';
