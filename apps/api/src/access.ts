@@ -12,26 +12,35 @@ const rinkStatements = {
   station: ['read', 'manage', 'upkeep'],
   service: ['read', 'manage'],
   ticket: ['read', 'create', 'work'],
+  product: ['read', 'manage'],
+  sale: ['create', 'refund'],
+  credit: ['read', 'redeem', 'adjust'],
+  league: ['read', 'manage'],
+  billing: ['read', 'manage'],
 } as const;
 
 export const statements = { ...defaultStatements, ...rinkStatements } as const;
 
 export const ac = createAccessControl(statements);
 
-const staffRead = { rink: ['read'], customer: ['read'], station: ['read'], service: ['read'] } as const;
-/** Owners and managers hold every rink permission. */
+const staffRead = { rink: ['read'], customer: ['read'], station: ['read'], service: ['read'], product: ['read'] } as const;
+/** Owners hold every rink permission; managers all but the rink's own plan and payout account. */
 const manage = rinkStatements;
 
 export const roles = {
   owner: ac.newRole({ organization: ['update', 'delete'], ...manage }),
-  manager: ac.newRole({ organization: ['update'], ...manage }),
+  manager: ac.newRole({ organization: ['update'], ...manage, billing: ['read'] }),
   technician: ac.newRole({
     ...staffRead,
     customer: ['read', 'create', 'update'],
     station: ['read', 'upkeep'],
     ticket: ['read', 'create', 'work'],
+    sale: ['create'],
+    credit: ['read', 'redeem'],
+    league: ['read'],
   }),
-  league_manager: ac.newRole({ ...staffRead }),
+  // A league manager sees and runs only the leagues they manage: the leagues service narrows every read and write.
+  league_manager: ac.newRole({ ...staffRead, league: ['read', 'manage'] }),
 } satisfies Record<StaffRole, unknown>;
 
 export type Permission = { [K in keyof typeof statements]?: (typeof statements)[K][number][] };

@@ -6,5 +6,6 @@ export * from './api/staff';
 export * from './api/auth';
 export * from './api/platform';
 export * from './api/desk';
+export * from './api/billing';
 export * from './member-code';
 export * from './numbers/index';

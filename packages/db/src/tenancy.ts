@@ -10,6 +10,10 @@ export const GLOBAL_TABLES: ReadonlySet<string> = new Set([
   'rate_limit',
   'rink',
   '__drizzle_migrations',
+  'outbox_mail',
+  'payment_event',
+  'payment_setting',
+  'job_run',
 ]);
 
 export function isTenantTable(name: string): boolean {

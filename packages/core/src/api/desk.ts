@@ -169,7 +169,7 @@ export const profileParams = z.object({ rinkSlug: z.string(), customerId: id, pr
 // ---- tickets ---------------------------------------------------------------------------------------------
 export const ticketState = z.enum(['waiting', 'on_station', 'ready', 'collected', 'void']);
 export type TicketState = z.infer<typeof ticketState>;
-export const payment = z.enum(['counter', 'no_charge']);
+export const payment = z.enum(['credit', 'allocation', 'counter', 'no_charge']);
 
 export const pairInput = z.object({
   skateProfileId: id.nullable().default(null),
@@ -184,6 +184,8 @@ export type PairInput = z.infer<typeof pairInput>;
 export const createTicketInput = z.object({
   customerId: id,
   payment: payment.default('counter'),
+  /** With payment 'allocation': the league team whose allocation the pairs draw from. */
+  teamId: id.nullable().default(null),
   pairs: z.array(pairInput).min(1, 'Add at least one pair').max(60, 'At most 60 pairs on one ticket'),
   notes: z.string().trim().max(1000).nullable().default(null),
 });

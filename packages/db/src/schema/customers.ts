@@ -1,4 +1,4 @@
-import { datetime, foreignKey, index, mysqlTable, unique, varchar } from 'drizzle-orm/mysql-core';
+import { datetime, foreignKey, index, int, mysqlTable, unique, varchar } from 'drizzle-orm/mysql-core';
 import { user } from './auth';
 import { rink } from './rinks';
 
@@ -14,6 +14,9 @@ export const customer = mysqlTable(
     phone: varchar('phone', { length: 32 }),
     memberCode: varchar('member_code', { length: 12 }).notNull(),
     userId: varchar('user_id', { length: 36 }),
+    /** The skater's choices of mail: the "ready" notice, and expiry and low-balance reminders (receipts always go). */
+    notifyReady: int('notify_ready').notNull().default(1),
+    notifyReminders: int('notify_reminders').notNull().default(1),
     createdAt: datetime('created_at', { mode: 'date', fsp: 3 })
       .notNull()
       .$defaultFn(() => new Date()),

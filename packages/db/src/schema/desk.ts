@@ -43,6 +43,9 @@ export const skateProfile = mysqlTable(
   ],
 );
 
+/** How a ticket is paid: a credit per pair from the skater's account or a team's allocation, at the counter, or not at all. */
+export const TICKET_PAYMENTS = ['credit', 'allocation', 'counter', 'no_charge'] as const;
+
 export const TICKET_STATES = ['waiting', 'on_station', 'ready', 'collected', 'void'] as const;
 
 /** One drop-off at the counter. Its state is the latest of its append-only events. */
@@ -55,7 +58,9 @@ export const ticket = mysqlTable(
     customerId: ref('customer_id').notNull(),
     state: mysqlEnum('state', TICKET_STATES).notNull(),
     stationId: ref('station_id'),
-    payment: mysqlEnum('payment', ['counter', 'no_charge']).notNull(),
+    payment: mysqlEnum('payment', TICKET_PAYMENTS).notNull(),
+    /** The account its pairs draw credits from, when paid by credit (a skater's account or a team allocation). */
+    creditAccountId: ref('credit_account_id'),
     notes: text('notes'),
     droppedAt: at('dropped_at').notNull(),
     promisedAt: at('promised_at').notNull(),

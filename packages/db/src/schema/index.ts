@@ -3,3 +3,7 @@ export * from './rinks';
 export * from './customers';
 export * from './stations';
 export * from './desk';
+export * from './billing';
+export * from './credits';
+export * from './leagues';
+export * from './outbox';
