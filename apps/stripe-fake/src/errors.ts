@@ -158,3 +158,8 @@ export function oneOf<T extends string>(value: string | undefined, allowed: read
   }
   return value as T;
 }
+
+/** The error `param` of a nested field: nested('line_items[0]', 'price') is 'line_items[0][price]'. */
+export function nested(label: string, name: string): string {
+  return label ? `${label}[${name}]` : name;
+}

@@ -15,6 +15,7 @@ export interface IdempotencyEntry {
   at: number;
   status?: number;
   body?: string;
+  requestId?: string;
 }
 
 export interface DeliveryAttempt {
@@ -117,7 +118,7 @@ export class Store {
 
   maybe<T extends StripeObject>(account: string, id: string, kind: T['object']): T | undefined {
     const entry = this.entries.get(id);
-    if (!entry || entry.account !== account || entry.obj.object !== kind) return undefined;
+    if (!entry || entry.account !== account || entry.obj.object !== kind || entry.obj.deleted) return undefined;
     return entry.obj as T;
   }
 
@@ -145,12 +146,12 @@ export class Store {
    * `data.` walks a list. `virtual` supplies fields that exist only when expanded (checkout session line_items).
    */
   expand(body: unknown, paths: string[], account: string, virtual: (node: Record<string, unknown>, key: string) => unknown): unknown {
-    const walk = (node: unknown, segments: string[], path: string): void => {
+    const walk = (node: unknown, segments: string[]): void => {
       const [key, ...rest] = segments;
       if (!key || typeof node !== 'object' || node === null) return;
       const record = node as Record<string, unknown>;
       if (record.object === 'list' && key === 'data' && Array.isArray(record.data)) {
-        for (const item of record.data) walk(item, rest, path);
+        for (const item of record.data) walk(item, rest);
         return;
       }
       let value = record[key];
@@ -162,11 +163,11 @@ export class Store {
         if (entry && (entry.account === account || entry.account === this.platform)) value = present(entry.obj);
       }
       record[key] = value;
-      walk(value, rest, path);
+      walk(value, rest);
     };
     for (const path of paths) {
       if (path.split('.').length > 4) throw invalid(`You cannot expand more than 4 levels of a property (${path}).`, 'expand');
-      walk(body, path.split('.'), path);
+      walk(body, path.split('.'));
     }
     return body;
   }

@@ -82,7 +82,7 @@ export interface PaymentMethod extends StripeObject {
 }
 
 export interface LastPaymentError {
-  type: 'card_error';
+  type: 'card_error' | 'invalid_request_error';
   code: string;
   decline_code?: string;
   message: string;
@@ -204,6 +204,8 @@ export interface CheckoutSession extends StripeObject {
     paymentIntentData: { application_fee_amount: number | null; metadata: Metadata; description: string | null };
     subscriptionData: { application_fee_percent: number | null; metadata: Metadata };
     pendingCard?: { paymentMethod: string; email: string };
+    /** Subscription mode has no payment intent of its own; failed attempts at the page are recorded on this one. */
+    attemptIntent?: string;
   };
 }
 
