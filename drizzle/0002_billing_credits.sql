@@ -251,6 +251,7 @@ CREATE TABLE `payment_setting` (
 );
 --> statement-breakpoint
 ALTER TABLE `ticket` MODIFY COLUMN `payment` enum('credit','allocation','counter','no_charge') NOT NULL;--> statement-breakpoint
+ALTER TABLE `customer` ADD `payment_customer_id` varchar(64);--> statement-breakpoint
 ALTER TABLE `customer` ADD `notify_ready` int DEFAULT 1 NOT NULL;--> statement-breakpoint
 ALTER TABLE `customer` ADD `notify_reminders` int DEFAULT 1 NOT NULL;--> statement-breakpoint
 ALTER TABLE `ticket` ADD `credit_account_id` varchar(36);--> statement-breakpoint

@@ -28,17 +28,22 @@ import { customerRoutes } from './features/customers/router';
 import { catalogRoutes } from './features/catalog/router';
 import { ticketRoutes } from './features/tickets/router';
 import { systemRoutes } from './features/system/router';
+import { billingRoutes, mountWebhooks } from './features/billing/router';
+import type { SalesDeps } from './features/billing/sales';
+import { createPayments, type Payments } from './lib/payments';
 
 export interface AppBundle {
   app: Express;
   auth: Auth;
+  payments: Payments;
+  mailer: Mailer;
   routes: Route[];
   logger: Logger;
   close(): Promise<void>;
 }
 
 /** Every route of the API, in one table: mounted, documented and swept for tenancy from here. */
-export function routeTable(env: Env, auth: Auth, mailer: Mailer, logger: Logger): Route[] {
+export function routeTable(env: Env, auth: Auth, mailer: Mailer, logger: Logger, sales: SalesDeps): Route[] {
   const routes: Route[] = [];
   const openApi = () => buildOpenApi(routes, env.APP_URL);
   routes.push(
@@ -51,6 +56,7 @@ export function routeTable(env: Env, auth: Auth, mailer: Mailer, logger: Logger)
     ...catalogRoutes,
     ...ticketRoutes({ mailer, logger }),
     ...platformRoutes,
+    ...billingRoutes(sales),
   );
   return routes;
 }
@@ -60,7 +66,9 @@ export function createApp(env: Env): AppBundle {
   connectDb(env.DATABASE_URL, { connectionLimit: env.DB_POOL_SIZE });
   const mailer = createMailer(env, logger);
   const auth = createAuth(env, currentDb(), mailer, logger);
-  const routes = routeTable(env, auth, mailer, logger);
+  const payments = createPayments(env);
+  const sales: SalesDeps = { env, payments, mailer };
+  const routes = routeTable(env, auth, mailer, logger, sales);
 
   const app = express();
   app.disable('x-powered-by');
@@ -94,6 +102,7 @@ export function createApp(env: Env): AppBundle {
   app.all('/api/auth/organization/*splat', notFoundHandler);
   app.all('/api/auth/*splat', toNodeHandler(auth));
 
+  mountWebhooks(app, sales);
   app.use(express.json({ limit: '1mb' }));
   app.use('/api', checkOrigin(trustedOrigins(env)));
   mountRoutes(app, routes, auth);
@@ -117,6 +126,8 @@ export function createApp(env: Env): AppBundle {
   return {
     app,
     auth,
+    payments,
+    mailer,
     routes,
     logger,
     async close() {

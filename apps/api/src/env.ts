@@ -24,6 +24,22 @@ export const envSchema = z.object({
   /** The capture server's web inbox, linked from the app when set (local demo only). */
   MAIL_INBOX_URL: z.url().optional(),
   STRIPE_API_BASE: z.url().default('http://127.0.0.1:12111'),
+  /** The platform's secret key on the payment service (the local fake accepts any sk_test_ key). */
+  STRIPE_SECRET_KEY: z.string().startsWith('sk_', 'STRIPE_SECRET_KEY must be a secret key (sk_...)').default('sk_test_rinkwright_local_platform'),
+  /** Test mode: test clocks may be advanced from the billing page, and the counter offers test cards. */
+  PAYMENT_TEST_MODE: z.stringbool().default(true),
+  /** The platform's fee on every sale a rink makes, in basis points (300 = 3 %). */
+  PLATFORM_FEE_BPS: z.coerce.number().int().min(0).max(5000).default(300),
+  /** The rink's plan: this much per active station per month, in PLAN_CURRENCY's minor units. */
+  PLAN_STATION_PRICE_MINOR: z.coerce.number().int().min(0).default(2900),
+  PLAN_CURRENCY: z.string().length(3).toLowerCase().default('usd'),
+  /** Days a rink keeps working after its plan's payment fails, before it becomes read-only. */
+  PLAN_GRACE_DAYS: z.coerce.number().int().min(0).max(60).default(7),
+  /** Credits at or below which a skater gets the low-balance reminder. */
+  LOW_BALANCE_CREDITS: z.coerce.number().int().min(0).default(1),
+  /** The background worker (mail retries, nightly expiry and reminders); tests run its steps directly. */
+  WORKER_ENABLED: z.stringbool().default(true),
+  WORKER_INTERVAL_MS: z.coerce.number().int().min(1000).default(30_000),
   WEB_DIST: z.string().optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   /** Requests per minute per client address on the auth endpoints and on the rest of the API. */

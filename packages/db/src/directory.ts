@@ -1,6 +1,7 @@
 import { and, asc, eq, isNull } from 'drizzle-orm';
 import { currentDb } from './client';
-import { customer, invitation, member, rink, user } from './schema/index';
+import { isDuplicateKey } from './client';
+import { customer, invitation, jobRun, member, rink, rinkBilling, user } from './schema/index';
 
 // The few reads that are not inside one rink by nature: they start from the signed-in user (which rinks am
 // I in?) or from a rink slug (which tenant is this URL?). Each is keyed by the caller's own user id or by the
@@ -39,7 +40,7 @@ export async function listMembershipsOfUser(userId: string) {
 
 export async function listCustomerLinksOfUser(userId: string) {
   return currentDb()
-    .select({ customerId: customer.id, memberCode: customer.memberCode, slug: rink.slug, name: rink.name })
+    .select({ customerId: customer.id, memberCode: customer.memberCode, rinkId: rink.id, slug: rink.slug, name: rink.name })
     .from(customer)
     .innerJoin(rink, eq(rink.id, customer.tenantId))
     .where(eq(customer.userId, userId))
@@ -83,4 +84,44 @@ export async function findInvitationPreview(invitationId: string) {
     .where(eq(invitation.id, invitationId))
     .limit(1);
   return rows[0];
+}
+
+/** Which rink a payment-service event of this connected account belongs to (the event names the account). */
+export async function findRinkByConnectedAccount(accountId: string) {
+  const rows = await currentDb()
+    .select({ rinkId: rinkBilling.tenantId })
+    .from(rinkBilling)
+    .where(eq(rinkBilling.connectedAccountId, accountId))
+    .limit(1);
+  return rows[0]?.rinkId;
+}
+
+/** The rink's plan state, read on every write to a rink: a rink whose plan went unpaid past its grace is read-only. */
+export async function findPlanState(rinkId: string) {
+  const rows = await currentDb()
+    .select({ planState: rinkBilling.planState, graceUntil: rinkBilling.planGraceUntil })
+    .from(rinkBilling)
+    .where(eq(rinkBilling.tenantId, rinkId))
+    .limit(1);
+  return rows[0];
+}
+
+/** Every rink's id, for the worker's nightly sweep (each rink is then worked on through its own scope). */
+export async function listRinkIds(): Promise<string[]> {
+  return (await currentDb().select({ id: rink.id }).from(rink)).map((r) => r.id);
+}
+
+/** Claims a job's run for a period once across every API process; false when another already has it. */
+export async function claimJobRun(job: string, period: string): Promise<boolean> {
+  try {
+    await currentDb().insert(jobRun).values({ job, period });
+    return true;
+  } catch (error) {
+    if (isDuplicateKey(error)) return false;
+    throw error;
+  }
+}
+
+export async function finishJobRun(job: string, period: string): Promise<void> {
+  await currentDb().update(jobRun).set({ finishedAt: new Date() }).where(and(eq(jobRun.job, job), eq(jobRun.period, period)));
 }

@@ -56,7 +56,8 @@ export interface Scope {
   /** Inside a transaction: reads the matching rows and holds their row locks until it ends (SELECT … FOR UPDATE). */
   lock<T extends MySqlTable>(table: T, where: SQL): Promise<Row<T>[]>;
   insert<T extends MySqlTable>(table: T, values: NewTenantRow<T> | NewTenantRow<T>[]): Promise<void>;
-  update<T extends MySqlTable>(table: T, set: Partial<NewRow<T>>, where: SQL): Promise<number>;
+  /** Values may be SQL (`remaining + 1`), so a running total moves in one statement. */
+  update<T extends MySqlTable>(table: T, set: { [K in keyof NewRow<T>]?: NewRow<T>[K] | SQL }, where: SQL): Promise<number>;
   remove(table: MySqlTable, where: SQL): Promise<number>;
   rink(): Promise<typeof rink.$inferSelect | undefined>;
   updateRink(set: RinkSettings): Promise<void>;

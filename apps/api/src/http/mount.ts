@@ -3,6 +3,7 @@ import type { z } from 'zod';
 import type { Auth } from '../auth';
 import { roleAllows } from '../access';
 import { findCaller, requireCaller, resolveRink } from '../middleware/context';
+import { directory } from '@rinkwright/db';
 import { AppError, fieldsOf } from './errors';
 import { idempotencyKeyOf, once, requestHash, type StoredAnswer } from '../middleware/idempotency';
 import type { RinkContext, Route } from './route';
@@ -32,6 +33,12 @@ async function contextFor(route: Route, auth: Auth, req: Request): Promise<unkno
       const ctx = await resolveRink(caller, String(req.params.rinkSlug));
       if (route.permission && !roleAllows(ctx.role, route.permission)) {
         throw new AppError('forbidden', 'Your role at this rink does not allow this');
+      }
+      // An unpaid plan past its grace leaves the rink readable, and only its billing can change (to pay it).
+      if (route.method !== 'get' && !route.permission?.billing) {
+        const plan = await directory.findPlanState(ctx.tenantId);
+        const lapsed = plan && (plan.planState === 'read_only' || (plan.planState === 'past_due' && plan.graceUntil !== null && plan.graceUntil <= new Date()));
+        if (lapsed) throw new AppError('read_only', 'This rink is read-only until its Rinkwright plan is paid');
       }
       return ctx;
     }

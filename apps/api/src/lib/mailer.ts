@@ -1,4 +1,8 @@
+import { randomUUID } from 'node:crypto';
+import { and, asc, eq, isNull, lte } from 'drizzle-orm';
 import nodemailer from 'nodemailer';
+import { isDuplicateKey, outboxMail } from '@rinkwright/db';
+import { currentDb } from '@rinkwright/db/unscoped';
 import type { Logger } from 'pino';
 import type { Env } from '../env';
 
@@ -10,9 +14,20 @@ export interface Mail {
 }
 
 export interface Mailer {
+  /** Sends now; a failure is thrown to the caller (better-auth logs it). */
   send(mail: Mail): Promise<void>;
+  /**
+   * Sends through the outbox: the mail is stored first, sent now if the server answers, and retried by the
+   * worker with backoff if not. A dedupe key makes a repeat (a replayed webhook, a second sweep) send nothing.
+   */
+  deliver(mail: Mail, options?: { tenantId?: string | null; dedupeKey?: string | null }): Promise<void>;
+  /** Sends the mails that are due (the worker's step); returns how many went out. */
+  drain(limit?: number): Promise<number>;
   close(): void;
 }
+
+/** Minutes to wait before the next try: 1, 2, 4, … up to a day. */
+export const retryDelayMinutes = (attempts: number) => Math.min(24 * 60, 2 ** Math.max(0, attempts - 1));
 
 export function createMailer(env: Env, logger: Logger): Mailer {
   const transport = nodemailer.createTransport({
@@ -23,13 +38,58 @@ export function createMailer(env: Env, logger: Logger): Mailer {
     ignoreTLS: !env.SMTP_SECURE && !env.SMTP_USER,
     auth: env.SMTP_USER ? { user: env.SMTP_USER, pass: env.SMTP_PASSWORD ?? '' } : undefined,
   });
+  const send = async (mail: Mail) => {
+    await transport.sendMail({ from: env.MAIL_FROM, ...mail });
+    logger.info({ to: mail.to, subject: mail.subject }, 'mail sent');
+  };
+
+  async function attempt(row: typeof outboxMail.$inferSelect): Promise<boolean> {
+    const db = currentDb();
+    try {
+      await send({ to: row.to, subject: row.subject, text: row.text, html: row.html });
+      await db.update(outboxMail).set({ sentAt: new Date(), attempts: row.attempts + 1, lastError: null }).where(eq(outboxMail.id, row.id));
+      return true;
+    } catch (error) {
+      const attempts = row.attempts + 1;
+      const next = new Date(Date.now() + retryDelayMinutes(attempts) * 60_000);
+      await db.update(outboxMail).set({ attempts, nextAttemptAt: next, lastError: String((error as Error).message ?? error).slice(0, 500) }).where(eq(outboxMail.id, row.id));
+      logger.warn({ to: row.to, subject: row.subject, attempts, err: error }, 'mail failed; the worker will retry');
+      return false;
+    }
+  }
+
   return {
-    async send(mail) {
-      await transport.sendMail({ from: env.MAIL_FROM, ...mail });
-      logger.info({ to: mail.to, subject: mail.subject }, 'mail sent');
+    send,
+    async deliver(mail, options = {}) {
+      const row = { id: randomUUID(), tenantId: options.tenantId ?? null, dedupeKey: options.dedupeKey ?? null, ...mail, attempts: 0, nextAttemptAt: new Date(), sentAt: null, lastError: null, createdAt: new Date() };
+      try {
+        await currentDb().insert(outboxMail).values(row);
+      } catch (error) {
+        if (isDuplicateKey(error)) return;
+        throw error;
+      }
+      await attempt(row);
+    },
+    async drain(limit = 20) {
+      // SKIP LOCKED lets several API processes drain one outbox without sending a mail twice.
+      return currentDb().transaction(async (tx) => {
+        const due = await tx.select().from(outboxMail).where(and(isNull(outboxMail.sentAt), lte(outboxMail.nextAttemptAt, new Date()))).orderBy(asc(outboxMail.nextAttemptAt)).limit(limit).for('update', { skipLocked: true });
+        let sent = 0;
+        for (const row of due) if (await attempt(row)) sent++;
+        return sent;
+      });
     },
     close: () => transport.close(),
   };
+}
+
+/** A receipt: what was paid or refunded, at which rink, with a reference to quote at the counter. */
+export function receiptMail(input: { to: string; rinkName: string; greeting: string; lines: string[]; reference: string }): Mail {
+  const text = `${input.greeting}\n\nYour receipt from ${input.rinkName}:\n${input.lines.map((l) => `- ${l}`).join('\n')}\n\nReference: ${input.reference}\n\n— Rinkwright`;
+  const html = `<!doctype html><html><body style="font-family:Manrope,Arial,sans-serif;color:#0E2233;background:#F7FAFC;padding:24px">
+<p>${escape(input.greeting)}</p><p>Your receipt from ${escape(input.rinkName)}:</p><ul>${input.lines.map((l) => `<li>${escape(l)}</li>`).join('')}</ul>
+<p style="font-size:13px;color:#44586b">Reference: ${escape(input.reference)}</p><p>— Rinkwright</p></body></html>`;
+  return { to: input.to, subject: `Receipt from ${input.rinkName}`, text, html };
 }
 
 const escape = (s: string) =>

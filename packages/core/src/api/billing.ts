@@ -301,6 +301,7 @@ export const allocationInput = z
   .object({ teamId: id.nullable().default(null), playerId: id.nullable().default(null), credits: wholeCredits(1000) })
   .refine((a) => (a.teamId === null) !== (a.playerId === null), { message: 'Give credits to one team or one player', path: ['teamId'] });
 export type AllocationInput = z.infer<typeof allocationInput>;
+export const counterTeams = z.object({ teams: z.array(z.object({ id: z.string(), name: z.string(), leagueName: z.string(), credits: z.number().int() })) });
 export const leagueCheckoutInput = z.object({ productId: id });
 
 // ---- skater portal ---------------------------------------------------------------------------------------

@@ -15,6 +15,8 @@ export const customer = mysqlTable(
     memberCode: varchar('member_code', { length: 12 }).notNull(),
     userId: varchar('user_id', { length: 36 }),
     /** The skater's choices of mail: the "ready" notice, and expiry and low-balance reminders (receipts always go). */
+    /** The customer's id on the rink's payout account (memberships are billed to it). */
+    paymentCustomerId: varchar('payment_customer_id', { length: 64 }),
     notifyReady: int('notify_ready').notNull().default(1),
     notifyReminders: int('notify_reminders').notNull().default(1),
     createdAt: datetime('created_at', { mode: 'date', fsp: 3 })

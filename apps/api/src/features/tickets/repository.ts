@@ -34,7 +34,8 @@ export const mountedWheel = async (tenantId: string, stationId: string) =>
   (await scoped(tenantId).find(wheel, { where: and(eq(wheel.stationId, stationId), isNull(wheel.removedAt)), limit: 1 }))[0];
 
 /** Opens a ticket with its pairs and its first event. The number is the rink's next; a race retries. */
-export async function insertTicket(tenantId: string, row: Omit<TicketRow, 'tenantId' | 'number'>, pairs: NewPair[]): Promise<number> {
+/** `within` runs in the same transaction (the pairs' credits are redeemed there, so a refusal keeps no ticket). */
+export async function insertTicket(tenantId: string, row: Omit<TicketRow, 'tenantId' | 'number'>, pairs: NewPair[], within?: (tx: Scope) => Promise<void>): Promise<number> {
   for (let attempt = 0; ; attempt++) {
     try {
       return await scoped(tenantId).transaction(async (tx) => {
@@ -43,6 +44,7 @@ export async function insertTicket(tenantId: string, row: Omit<TicketRow, 'tenan
         await tx.insert(ticket, { ...row, number });
         await tx.insert(ticketPair, pairs);
         await tx.insert(ticketEvent, { id: randomUUID(), ticketId: row.id, fromState: null, toState: row.state, at: row.droppedAt, byUserId: row.createdBy });
+        if (within) await within(tx);
         return number;
       });
     } catch (error) {
@@ -171,11 +173,13 @@ export async function moveTicket(
   from: TicketState,
   set: Partial<Omit<TicketRow, 'id' | 'tenantId'>> & { state: TicketState },
   event: { stationId: string | null; reason: string | null; at: Date; byUserId: string },
+  within?: (tx: Scope) => Promise<void>,
 ): Promise<boolean> {
   return scoped(tenantId).transaction(async (tx) => {
     const moved = await tx.update(ticket, set, and(eq(ticket.id, ticketId), eq(ticket.state, from))!);
     if (moved === 0) return false;
     await tx.insert(ticketEvent, { id: randomUUID(), ticketId, fromState: from, toState: set.state, ...event });
+    if (within) await within(tx);
     return true;
   });
 }
@@ -194,6 +198,8 @@ export async function insertSharpening(
     newPair?: Omit<NewPair, 'position'>;
     sharpening: NewSharpening;
     readings: NewReading[];
+    /** Runs under the ticket's lock, after a new pair is written (a batch pair draws its credit here). */
+    withinNewPair?: (tx: Scope, pairId: string) => Promise<void>;
   },
 ): Promise<'logged' | 'already_logged' | 'closed'> {
   return scoped(tenantId).transaction(async (tx: Scope) => {
@@ -210,12 +216,15 @@ export async function insertSharpening(
     if (input.newPair) {
       const [last] = await tx.findJoined(ticketPair, { fields: { n: max(ticketPair.position) }, joins: [], where: eq(ticketPair.ticketId, input.ticketId) });
       await tx.insert(ticketPair, { ...input.newPair, position: (last?.n ?? 0) + 1 });
+      if (input.withinNewPair) await input.withinNewPair(tx, input.newPair.id);
     }
     await tx.insert(sharpening, input.sharpening);
     if (input.readings.length) await tx.insert(levelReading, input.readings);
     return 'logged';
   });
 }
+
+export const pairIdsOf = async (tenantId: string, ticketId: string) => (await scoped(tenantId).find(ticketPair, { where: eq(ticketPair.ticketId, ticketId) })).map((p) => p.id);
 
 export const findPair = (tenantId: string, ticketId: string, pairId: string) =>
   scoped(tenantId).findOne(ticketPair, and(eq(ticketPair.id, pairId), eq(ticketPair.ticketId, ticketId))!);

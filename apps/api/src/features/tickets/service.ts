@@ -17,6 +17,8 @@ import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
 import { readDeskSettings } from '../../lib/desk-settings';
 import { noticeMail, type Mailer } from '../../lib/mailer';
+import { scoped, type Scope } from '@rinkwright/db';
+import * as ledger from '../../lib/ledger/ledger';
 import * as repo from './repository';
 
 const TICKET_NOT_FOUND = 'No such ticket at this rink';
@@ -90,9 +92,12 @@ export async function takeIn(ctx: RinkContext, input: CreateTicketInput): Promis
   });
   if (Object.keys(fields).length) throw new AppError('validation_failed', 'Some pairs need attention', fields);
 
+  const creditAccountId = await payingAccount(ctx, customer.id, input);
   const now = new Date();
   const { promisedAt } = await promiseFor(ctx, input.pairs.length, now);
   const id = randomUUID();
+  const pairIds = input.pairs.map(() => randomUUID());
+  const standard = new Set(services.filter((s) => s.kind === 'standard').map((s) => s.id));
   await repo.insertTicket(
     ctx.tenantId,
     {
@@ -101,6 +106,7 @@ export async function takeIn(ctx: RinkContext, input: CreateTicketInput): Promis
       state: 'waiting',
       stationId: null,
       payment: input.payment,
+      creditAccountId,
       notes: input.notes,
       droppedAt: now,
       promisedAt: new Date(promisedAt),
@@ -113,7 +119,7 @@ export async function takeIn(ctx: RinkContext, input: CreateTicketInput): Promis
     input.pairs.map((p, i) => {
       const profile = profiles.find((pr) => pr.id === p.skateProfileId);
       return {
-        id: randomUUID(),
+        id: pairIds[i]!,
         ticketId: id,
         position: i + 1,
         skateProfileId: p.skateProfileId,
@@ -125,8 +131,31 @@ export async function takeIn(ctx: RinkContext, input: CreateTicketInput): Promis
         notes: p.notes,
       };
     }),
+    creditAccountId
+      ? async (tx) => {
+          for (const [i, p] of input.pairs.entries()) {
+                if (standard.has(p.serviceId)) await redeemForPair(tx, ctx, creditAccountId, pairIds[i]!);
+          }
+        }
+      : undefined,
   );
   return describeTicket(ctx, id);
+}
+
+/** The credit account a ticket's pairs draw from: the skater's own, or a league team's allocation. */
+async function payingAccount(ctx: RinkContext, customerId: string, input: CreateTicketInput): Promise<string | null> {
+  const s = scoped(ctx.tenantId);
+  if (input.payment === 'credit') return (await ledger.skaterAccount(s, customerId)).id;
+  if (input.payment !== 'allocation') return null;
+  if (!input.teamId) throw AppError.field('teamId', 'Choose the team whose allocation pays');
+  const account = await ledger.findTeamAccount(s, input.teamId);
+  if (!account) throw AppError.field('teamId', 'No such team at this rink');
+  return account.id;
+}
+
+/** One credit per standard pair, keyed by the pair, so a pair can never draw twice. */
+function redeemForPair(tx: Scope, ctx: RinkContext, accountId: string, pairId: string) {
+  return ledger.redeem(tx, { accountId, key: `pair:${pairId}`, actor: { userId: ctx.userId, source: 'ticket', sourceId: pairId } });
 }
 
 // ---- reading and listing ------------------------------------------------------------------------------------
@@ -234,21 +263,33 @@ export async function moveTicket(ctx: RinkContext, ticketId: string, input: Tran
       event.reason = input.reason;
       break;
   }
+  // A void ticket gives its credits back: each redemption of its pairs is reversed in the same transaction.
+  const giveBack = input.to === 'void' && found.creditAccountId ? await refundCreditsOf(ctx, ticketId, found.creditAccountId) : undefined;
   // Two tablets pressing at once: only the first move from the state both saw takes effect.
-  if (!(await repo.moveTicket(ctx.tenantId, ticketId, found.state, set, event))) {
+  if (!(await repo.moveTicket(ctx.tenantId, ticketId, found.state, set, event, giveBack))) {
     throw new AppError('conflict', 'The ticket changed meanwhile; look at it again');
   }
   if (input.to === 'ready') await sendReadyNotice(ctx, found.customerId, found.number, deps);
   return describeTicket(ctx, ticketId);
 }
 
+async function refundCreditsOf(ctx: RinkContext, ticketId: string, accountId: string) {
+  const pairIds = await repo.pairIdsOf(ctx.tenantId, ticketId);
+  return async (tx: Scope) => {
+    const redeemed = await ledger.redemptionsOfPairs(tx, pairIds);
+    for (const entry of redeemed) {
+      await ledger.reverse(tx, { accountId, key: `void:${entry.id}`, actor: { userId: ctx.userId, source: 'ticket', sourceId: entry.sourceId, reason: 'Ticket void' }, operationId: entry.operationId });
+    }
+  };
+}
+
 /** The skater hears that the skates are ready; a mail that fails is logged and does not undo the ticket. */
 async function sendReadyNotice(ctx: RinkContext, customerId: string, number: number, deps: TicketDeps) {
   const customer = await repo.findCustomer(ctx.tenantId, customerId);
-  if (!customer?.email) return;
+  if (!customer?.email || customer.notifyReady === 0) return;
   const rinkName = ctx.rinkName;
   try {
-    await deps.mailer.send(
+    await deps.mailer.deliver(
       noticeMail({
         to: customer.email,
         subject: `Your skates are ready at ${rinkName}`,
@@ -256,6 +297,7 @@ async function sendReadyNotice(ctx: RinkContext, customerId: string, number: num
         body: `Your skates on ticket ${number} are sharpened and ready to collect at the ${rinkName} counter.`,
         footer: 'Blades are sharp: carry them with guards on.',
       }),
+      { tenantId: ctx.tenantId, dedupeKey: `ready:${customerId}:${number}:${Date.now()}` },
     );
   } catch (error) {
     deps.logger.error({ err: error, ticket: number }, 'ready notice not sent');
@@ -337,6 +379,7 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
       correctionReason: null,
     },
     readings: readingRows(ctx, target.id, sharpeningId, input.bladeWidthNm, input.readings, () => 1, now),
+    withinNewPair: found.creditAccountId && newPair && (await repo.findServices(ctx.tenantId, [newPair.serviceId]))[0]?.kind === 'standard' ? (tx, id) => redeemForPair(tx, ctx, found.creditAccountId!, id).then(() => undefined) : undefined,
   });
   // Another tablet got there first while this request was on its way.
   if (outcome === 'already_logged') throw new AppError('conflict', ALREADY_LOGGED);

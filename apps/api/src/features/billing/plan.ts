@@ -1,0 +1,168 @@
+import type Stripe from 'stripe';
+import type { BillingResponse } from '@rinkwright/core';
+import { scoped, type Scope } from '@rinkwright/db';
+import { AppError } from '../../http/errors';
+import type { RinkContext } from '../../http/route';
+import { readSetting, writeSetting } from '../../lib/payment-settings';
+import { callPayments } from '../../lib/payments';
+import { syncCatalog } from './catalog';
+import * as repo from './repository';
+import type { SalesDeps } from './sales';
+
+// The rink's side of the payment service: its payout account (a connected account, onboarded on the service's
+// own pages) and its Rinkwright plan (a subscription on the platform account, per active station per month).
+
+const DAY = 86_400_000;
+
+export async function billingStatus(ctx: RinkContext, deps: SalesDeps): Promise<BillingResponse> {
+  const s = scoped(ctx.tenantId);
+  const billing = await repo.ensureBilling(s, deps.env.PLATFORM_FEE_BPS);
+  return {
+    payout: { connected: billing.connectedAccountId !== null, chargesEnabled: billing.chargesEnabled === 1, accountId: billing.connectedAccountId },
+    plan: {
+      state: effectivePlanState(billing, new Date()),
+      stations: billing.planStations,
+      activeStations: await repo.countActiveStations(s),
+      periodEnd: billing.planPeriodEnd?.toISOString() ?? null,
+      graceUntil: billing.planGraceUntil?.toISOString() ?? null,
+      pricePerStationMinor: deps.env.PLAN_STATION_PRICE_MINOR,
+      currency: deps.env.PLAN_CURRENCY.toUpperCase(),
+      feeBps: billing.feeBps,
+    },
+    testMode: deps.env.PAYMENT_TEST_MODE,
+  };
+}
+
+/** past_due turns into read_only when its grace runs out, even before the worker writes it down. */
+export function effectivePlanState(billing: Pick<repo.BillingRecord, 'planState' | 'planGraceUntil'>, now: Date): repo.BillingRecord['planState'] {
+  if (billing.planState === 'past_due' && billing.planGraceUntil && billing.planGraceUntil <= now) return 'read_only';
+  return billing.planState;
+}
+
+/** Creates the payout account once and returns a fresh onboarding link to the payment service's pages. */
+export async function startOnboarding(ctx: RinkContext, deps: SalesDeps): Promise<{ url: string }> {
+  const s = scoped(ctx.tenantId);
+  const billing = await repo.ensureBilling(s, deps.env.PLATFORM_FEE_BPS);
+  const base = `${deps.env.APP_URL.replace(/\/$/, '')}/rinks/${ctx.rinkSlug}/billing`;
+  return callPayments(async () => {
+    let account = billing.connectedAccountId;
+    if (!account) {
+      const made = await deps.payments.accounts.create(
+        { type: 'express', email: ctx.email, business_profile: { name: ctx.rinkName }, metadata: { rink_id: ctx.tenantId } },
+        { idempotencyKey: `account:${ctx.tenantId}` },
+      );
+      account = made.id;
+      const clock = deps.env.PAYMENT_TEST_MODE ? await deps.payments.testHelpers.testClocks.create({ frozen_time: Math.floor(Date.now() / 1000), name: `${ctx.rinkSlug} memberships` }, { stripeAccount: account, idempotencyKey: `clock:${ctx.tenantId}` }) : null;
+      await repo.updateBilling(s, { connectedAccountId: account, testClockId: clock?.id ?? null });
+    }
+    const link = await deps.payments.accountLinks.create({ account, type: 'account_onboarding', refresh_url: base, return_url: `${base}?onboarded=1` });
+    return { url: link.url };
+  });
+}
+
+/** Reads the payout account's state from the service (the return from onboarding, and account.updated). */
+export async function refreshPayoutAccount(s: Scope, deps: SalesDeps): Promise<void> {
+  const billing = await repo.findBilling(s);
+  if (!billing?.connectedAccountId) return;
+  const account = await callPayments(() => deps.payments.accounts.retrieve(billing.connectedAccountId!));
+  const enabled = account.charges_enabled ? 1 : 0;
+  await repo.updateBilling(s, { chargesEnabled: enabled });
+  if (enabled) await syncCatalog(s, deps.payments);
+}
+
+/** The platform's per-station plan price, made once on the platform account and remembered. */
+async function planPrice(deps: SalesDeps): Promise<string> {
+  const key = `plan-price:${deps.env.PLAN_CURRENCY}:${deps.env.PLAN_STATION_PRICE_MINOR}`;
+  const known = await readSetting(key);
+  if (known) return known.value;
+  const product = await deps.payments.products.create({ name: 'Rinkwright plan (per active station)', metadata: { kind: 'plan' } }, { idempotencyKey: `${key}:product` });
+  const price = await deps.payments.prices.create(
+    { product: product.id, unit_amount: deps.env.PLAN_STATION_PRICE_MINOR, currency: deps.env.PLAN_CURRENCY, recurring: { interval: 'month' }, metadata: { kind: 'plan' } },
+    { idempotencyKey: `${key}:price` },
+  );
+  return (await writeSetting(key, price.id, null)).value;
+}
+
+/** Starts (or restarts) the rink's plan through hosted checkout on the platform account. */
+export async function startPlan(ctx: RinkContext, deps: SalesDeps): Promise<{ url: string }> {
+  const s = scoped(ctx.tenantId);
+  const billing = await repo.ensureBilling(s, deps.env.PLATFORM_FEE_BPS);
+  const state = effectivePlanState(billing, new Date());
+  if (state === 'active' || state === 'past_due') throw new AppError('conflict', 'The plan is already running');
+  const stations = Math.max(1, await repo.countActiveStations(s));
+  const base = `${deps.env.APP_URL.replace(/\/$/, '')}/rinks/${ctx.rinkSlug}/billing`;
+  return callPayments(async () => {
+    let customer = billing.planCustomerId;
+    if (!customer) {
+      const clock = deps.env.PAYMENT_TEST_MODE ? await deps.payments.testHelpers.testClocks.create({ frozen_time: Math.floor(Date.now() / 1000), name: `${ctx.rinkSlug} plan` }, { idempotencyKey: `plan-clock:${ctx.tenantId}` }) : null;
+      customer = (await deps.payments.customers.create({ email: ctx.email, name: ctx.rinkName, metadata: { rink_id: ctx.tenantId }, ...(clock ? { test_clock: clock.id } : {}) }, { idempotencyKey: `plan-customer:${ctx.tenantId}` })).id;
+      await repo.updateBilling(s, { planCustomerId: customer, platformTestClockId: clock?.id ?? null });
+    }
+    const metadata = { kind: 'plan', rink_id: ctx.tenantId };
+    const session = await deps.payments.checkout.sessions.create({
+      mode: 'subscription',
+      customer,
+      line_items: [{ price: await planPrice(deps), quantity: stations }],
+      success_url: `${base}?plan=started`,
+      cancel_url: base,
+      metadata,
+      subscription_data: { metadata },
+    });
+    if (!session.url) throw new AppError('payment_unavailable', 'The payment service gave no checkout page');
+    return { url: session.url };
+  });
+}
+
+type SubscriptionWithPeriod = Stripe.Subscription & { current_period_end?: number };
+
+/** The plan's state from its subscription as the service has it now (events may come in any order). */
+export async function syncPlan(deps: SalesDeps, subscriptionId: string, failedInvoice = false): Promise<void> {
+  const sub = (await deps.payments.subscriptions.retrieve(subscriptionId)) as SubscriptionWithPeriod;
+  const rinkId = sub.metadata?.rink_id;
+  if (sub.metadata?.kind !== 'plan' || !rinkId) return;
+  const s = scoped(rinkId);
+  const billing = await repo.findBilling(s);
+  if (!billing) return;
+  const item = sub.items?.data?.[0] as (Stripe.SubscriptionItem & { current_period_end?: number }) | undefined;
+  const periodEnd = item?.current_period_end ?? sub.current_period_end;
+  const state: repo.BillingRecord['planState'] =
+    sub.status === 'active' || sub.status === 'trialing' ? 'active' : sub.status === 'past_due' || sub.status === 'unpaid' ? 'past_due' : sub.status === 'canceled' ? 'canceled' : billing.planState;
+  const graceUntil = state === 'past_due' ? (billing.planGraceUntil ?? new Date(Date.now() + deps.env.PLAN_GRACE_DAYS * DAY)) : null;
+  await repo.updateBilling(s, {
+    planSubscriptionId: sub.id,
+    planState: failedInvoice && state === 'active' ? billing.planState : state,
+    planStations: item?.quantity ?? billing.planStations,
+    planPeriodEnd: periodEnd ? new Date(periodEnd * 1000) : null,
+    planGraceUntil: graceUntil,
+  });
+}
+
+/** Test mode only: moves the rink's test clocks on, so renewals (and failed renewals) happen in the demo. */
+export async function advanceClocks(ctx: RinkContext, deps: SalesDeps, days: number): Promise<BillingResponse> {
+  if (!deps.env.PAYMENT_TEST_MODE) throw AppError.notFound('Test clocks exist only in test mode');
+  const s = scoped(ctx.tenantId);
+  const billing = await repo.ensureBilling(s, deps.env.PLATFORM_FEE_BPS);
+  await callPayments(async () => {
+    const move = async (clockId: string, account?: string) => {
+      const opts = account ? { stripeAccount: account } : {};
+      const clock = await deps.payments.testHelpers.testClocks.retrieve(clockId, {}, opts);
+      await deps.payments.testHelpers.testClocks.advance(clockId, { frozen_time: clock.frozen_time + days * 86_400 }, opts);
+    };
+    if (billing.testClockId && billing.connectedAccountId) await move(billing.testClockId, billing.connectedAccountId);
+    if (billing.platformTestClockId) await move(billing.platformTestClockId);
+  });
+  return billingStatus(ctx, deps);
+}
+
+/** Keeps the plan's quantity equal to the active stations (called when a station's status changes). */
+export async function matchPlanToStations(s: Scope, deps: SalesDeps): Promise<void> {
+  const billing = await repo.findBilling(s);
+  if (!billing?.planSubscriptionId || billing.planState === 'canceled') return;
+  const stations = Math.max(1, await repo.countActiveStations(s));
+  if (stations === billing.planStations) return;
+  const sub = await deps.payments.subscriptions.retrieve(billing.planSubscriptionId);
+  const item = sub.items.data[0];
+  if (!item) return;
+  await deps.payments.subscriptions.update(sub.id, { items: [{ id: item.id, quantity: stations }] });
+  await repo.updateBilling(s, { planStations: stations });
+}

@@ -1,0 +1,139 @@
+import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, lte, or, sql } from 'drizzle-orm';
+import { creditAccount, creditEntry, creditLot, customer, isDuplicateKey, membership, product, user, type Scope } from '@rinkwright/db';
+
+// The ledger's queries. Every function takes the caller's scope, usually a transaction's, so that a whole
+// operation (lock, read lots, write entries, move `remaining`) commits or rolls back as one.
+
+export type AccountRow = typeof creditAccount.$inferSelect;
+export type LotRecord = typeof creditLot.$inferSelect;
+export type EntryRecord = typeof creditEntry.$inferSelect;
+export type NewEntry = Omit<typeof creditEntry.$inferInsert, 'tenantId'>;
+export type NewLot = Omit<typeof creditLot.$inferInsert, 'tenantId'>;
+
+export const findAccount = (s: Scope, accountId: string) => s.findOne(creditAccount, eq(creditAccount.id, accountId));
+export const findAccountOfCustomer = (s: Scope, customerId: string) => s.findOne(creditAccount, eq(creditAccount.customerId, customerId));
+export const findAccountOfTeam = (s: Scope, teamId: string) => s.findOne(creditAccount, eq(creditAccount.teamId, teamId));
+export const findPoolOfLeague = (s: Scope, leagueId: string) =>
+  s.findOne(creditAccount, and(eq(creditAccount.leagueId, leagueId), eq(creditAccount.kind, 'league_pool'))!);
+
+/** Inserts the account unless a concurrent request just did (the unique keys decide), then reads it. */
+export async function ensureAccount(s: Scope, row: Omit<typeof creditAccount.$inferInsert, 'tenantId'>, find: () => Promise<AccountRow | undefined>): Promise<AccountRow> {
+  const existing = await find();
+  if (existing) return existing;
+  try {
+    await s.insert(creditAccount, row);
+  } catch (error) {
+    if (!isDuplicateKey(error)) throw error;
+  }
+  const made = await find();
+  if (!made) throw new Error('credit account vanished after insert');
+  return made;
+}
+
+/** SELECT … FOR UPDATE on the account row: every change to its lots waits here, one at a time. */
+export async function lockAccount(s: Scope, accountId: string): Promise<AccountRow | undefined> {
+  const [row] = await s.lock(creditAccount, eq(creditAccount.id, accountId));
+  return row;
+}
+
+export interface LotWithContext extends LotRecord {
+  productName: string | null;
+  membershipState: (typeof membership.$inferSelect)['state'] | null;
+  membershipGraceUntil: Date | null;
+}
+
+export function lotsOf(s: Scope, accountIds: string[], options: { liveOnly?: boolean } = {}): Promise<LotWithContext[]> {
+  if (accountIds.length === 0) return Promise.resolve([]);
+  const where = and(inArray(creditLot.accountId, accountIds), options.liveOnly ? gt(creditLot.remaining, 0) : undefined);
+  return s.findJoined(creditLot, {
+    fields: {
+      ...columnsOf(creditLot),
+      productName: sql<string | null>`(select ${product.name} from ${product} where ${product.tenantId} = ${creditLot.tenantId} and ${product.id} = ${creditLot.productId})`,
+      membershipState: sql<LotWithContext['membershipState']>`(select ${membership.state} from ${membership} where ${membership.tenantId} = ${creditLot.tenantId} and ${membership.id} = ${creditLot.membershipId})`,
+      membershipGraceUntil: sql<Date | null>`(select ${membership.graceUntil} from ${membership} where ${membership.tenantId} = ${creditLot.tenantId} and ${membership.id} = ${creditLot.membershipId})`.mapWith(
+        (v: string | Date | null) => (v === null ? null : v instanceof Date ? v : new Date(`${v.replace(' ', 'T')}Z`)),
+      ),
+    },
+    joins: [],
+    where,
+    orderBy: [asc(creditLot.createdAt), asc(creditLot.id)],
+  }) as Promise<LotWithContext[]>;
+}
+
+function columnsOf(table: typeof creditLot) {
+  const { id, tenantId, accountId, origin, credits, remaining, priceMinor, expiresAt, productId, paymentId, membershipId, fromLotId, createdAt } = table;
+  return { id, tenantId, accountId, origin, credits, remaining, priceMinor, expiresAt, productId, paymentId, membershipId, fromLotId, createdAt };
+}
+
+export const insertLot = (s: Scope, row: NewLot) => s.insert(creditLot, row);
+export const insertEntries = (s: Scope, rows: NewEntry[]) => s.insert(creditEntry, rows);
+
+/** Moves a lot's running total by delta; refuses (0 rows) to take it below zero. */
+export async function moveRemaining(s: Scope, lotId: string, delta: number): Promise<boolean> {
+  const changed = await s.update(creditLot, { remaining: sql`${creditLot.remaining} + ${delta}` }, and(eq(creditLot.id, lotId), sql`${creditLot.remaining} + ${delta} >= 0`)!);
+  return changed === 1;
+}
+
+export const findEntryByKey = (s: Scope, key: string) => s.findOne(creditEntry, eq(creditEntry.idemKey, key));
+export const entriesOfOperation = (s: Scope, operationId: string) => s.find(creditEntry, { where: eq(creditEntry.operationId, operationId), orderBy: asc(creditEntry.createdAt) });
+export const entriesReversing = (s: Scope, entryIds: string[]) =>
+  entryIds.length ? s.find(creditEntry, { where: inArray(creditEntry.reversesId, entryIds) }) : Promise.resolve([]);
+export const entriesOfSource = (s: Scope, source: EntryRecord['source'], sourceIds: string[]) =>
+  sourceIds.length ? s.find(creditEntry, { where: and(eq(creditEntry.source, source), inArray(creditEntry.sourceId, sourceIds)) }) : Promise.resolve([]);
+
+export function entriesOf(s: Scope, accountIds: string[], limit = 200) {
+  if (accountIds.length === 0) return Promise.resolve([]);
+  return s.findJoined(creditEntry, {
+    fields: {
+      id: creditEntry.id,
+      accountId: creditEntry.accountId,
+      kind: creditEntry.kind,
+      credits: creditEntry.credits,
+      valueMinor: creditEntry.valueMinor,
+      source: creditEntry.source,
+      sourceId: creditEntry.sourceId,
+      reason: creditEntry.reason,
+      reversesId: creditEntry.reversesId,
+      lotId: creditEntry.lotId,
+      operationId: creditEntry.operationId,
+      actor: sql<string | null>`(select ${user.name} from ${user} where ${user.id} = ${creditEntry.actorUserId})`,
+      createdAt: creditEntry.createdAt,
+    },
+    joins: [],
+    where: inArray(creditEntry.accountId, accountIds),
+    orderBy: [desc(creditEntry.createdAt), desc(creditEntry.id)],
+    limit,
+  });
+}
+
+export const lotById = (s: Scope, lotId: string) => s.findOne(creditLot, eq(creditLot.id, lotId));
+export const lotsOfPayment = (s: Scope, paymentId: string) => s.find(creditLot, { where: eq(creditLot.paymentId, paymentId) });
+export const lotsOfMembership = (s: Scope, membershipId: string) => s.find(creditLot, { where: and(eq(creditLot.membershipId, membershipId), gt(creditLot.remaining, 0)) });
+
+/** Lots past their expiry with credits left, except those of a running membership (its renewal rolls them over). */
+export function expiredLotsDue(s: Scope, now: Date, limit = 500) {
+  return s.findJoined(creditLot, {
+    fields: columnsOf(creditLot),
+    joins: [],
+    where: and(
+      gt(creditLot.remaining, 0),
+      isNotNull(creditLot.expiresAt),
+      lte(creditLot.expiresAt, now),
+      or(
+        isNull(creditLot.membershipId),
+        sql`(select ${membership.state} from ${membership} where ${membership.tenantId} = ${creditLot.tenantId} and ${membership.id} = ${creditLot.membershipId}) = 'canceled'`,
+      ),
+    ),
+    limit,
+  });
+}
+
+/** The skater accounts of customers who want reminders, with their e-mail, for the low-balance and expiry mails. */
+export function remindableAccounts(s: Scope, accountIds: string[]) {
+  if (accountIds.length === 0) return Promise.resolve([]);
+  return s.findJoined(creditAccount, {
+    fields: { accountId: creditAccount.id, customerId: customer.id, name: customer.name, email: customer.email },
+    joins: [{ table: customer, on: eq(customer.id, creditAccount.customerId) }],
+    where: and(inArray(creditAccount.id, accountIds), eq(customer.notifyReminders, 1), isNotNull(customer.email)),
+  });
+}
