@@ -65,7 +65,17 @@ describe('GET /api/rinks/:slug', () => {
       currency: 'CAD',
       unitPreference: 'in',
       role: 'technician',
-      permissions: { rink: ['read'], customer: ['read', 'create', 'update'], station: ['read', 'upkeep'], service: ['read'], ticket: ['read', 'create', 'work'] },
+      permissions: {
+        rink: ['read'],
+        customer: ['read', 'create', 'update'],
+        station: ['read', 'upkeep'],
+        service: ['read'],
+        ticket: ['read', 'create', 'work'],
+        product: ['read'],
+        sale: ['create'],
+        credit: ['read', 'redeem'],
+        league: ['read'],
+      },
       counts: { members: STAFF_ROLES.length, pendingInvitations: 1, customers: 1 },
       createdAt: expect.stringMatching(/^\d{4}-\d\d-\d\dT/),
     });

@@ -1,7 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import { STAFF_ROLES, type StaffRole } from '@rinkwright/core';
 import { createService, createSharpening, createSkateProfile, createStation, createTicket } from '@rinkwright/db/testing';
-import { isTenantTable, rink, user } from '@rinkwright/db';
+import { isTenantTable, league, membership, payment, product, productPrice, rink, scoped, user } from '@rinkwright/db';
+import * as ledger from '../../apps/api/src/lib/ledger/ledger';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { eq, inArray } from 'drizzle-orm';
 import { getTableConfig } from 'drizzle-orm/mysql-core';
@@ -35,6 +36,10 @@ interface Desk {
   ticketId: string;
   pairId: string;
   sharpeningId: string;
+  productId: string;
+  paymentId: string;
+  membershipId: string;
+  leagueId: string;
 }
 
 async function deskOf(world: RinkWorld): Promise<Desk> {
@@ -46,7 +51,27 @@ async function deskOf(world: RinkWorld): Promise<Desk> {
   const made = await createTicket(db, world.id, { customerId: skater.id, serviceId: service.id, createdBy: world.staff.technician.id, number: 1, pairs: 2, state: 'on_station', stationId: stationRow.id });
   const pairId = made.pairIds[0] ?? '';
   const done = await createSharpening(db, world.id, { ticketId: made.id, pairId, stationId: stationRow.id, technicianId: world.staff.technician.id });
-  return { stationId: stationRow.id, serviceId: service.id, customerId: skater.id, profileId: profile.id, ticketId: made.id, pairId, sharpeningId: done.id };
+  const billing = await billingOf(world.id, skater.id);
+  return { stationId: stationRow.id, serviceId: service.id, customerId: skater.id, profileId: profile.id, ticketId: made.id, pairId, sharpeningId: done.id, ...billing };
+}
+
+/** A product with its price, a paid cash sale with its credits, a membership and a league: rows a stranger could harm. */
+async function billingOf(rinkId: string, customerId: string) {
+  const s = scoped(rinkId);
+  const now = new Date();
+  const productId = randomUUID();
+  const priceId = randomUUID();
+  const paymentId = randomUUID();
+  const membershipId = randomUUID();
+  const leagueId = randomUUID();
+  await s.insert(product, { id: productId, kind: 'punch_card', name: 'Swept card', credits: 5, monthsValid: 12, createdAt: now, updatedAt: now });
+  await s.insert(productPrice, { id: priceId, productId, amountMinor: 2500, currency: 'USD' });
+  await s.insert(payment, { id: paymentId, customerId, productId, priceId, channel: 'counter', state: 'paid', amountMinor: 2500, currency: 'USD', feeMinor: 0, paidAt: now });
+  await s.insert(membership, { id: membershipId, customerId, productId, subscriptionId: `sub_swept_${rinkId}`, state: 'active', updatedAt: now });
+  await s.insert(league, { id: leagueId, name: 'Swept league' });
+  const account = await ledger.skaterAccount(s, customerId);
+  await ledger.addLot(s, { accountId: account.id, key: `swept:${paymentId}`, actor: { userId: null, source: 'payment', sourceId: paymentId }, kind: 'purchase', lot: { origin: 'purchase', credits: 5, priceMinor: 2500, productId, paymentId } });
+  return { productId, paymentId, membershipId, leagueId };
 }
 
 /** B's real id for each path parameter a rink route may have. */
@@ -59,6 +84,10 @@ const ID_OF_B: Record<string, (f: Fixture) => string> = {
   profileId: (f) => f.desk.profileId,
   ticketId: (f) => f.desk.ticketId,
   sharpeningId: (f) => f.desk.sharpeningId,
+  productId: (f) => f.desk.productId,
+  paymentId: (f) => f.desk.paymentId,
+  membershipId: (f) => f.desk.membershipId,
+  leagueId: (f) => f.desk.leagueId,
 };
 
 const station = { name: 'Swept', rpm: 3450, adjustStepMilli: 125 };
@@ -100,6 +129,18 @@ const EXAMPLE_BODIES: Record<string, () => unknown> = {
   'put /api/rinks/:rinkSlug/customers/:customerId/profiles/:profileId': () => ({ label: 'Swept pair', notes: 'changed by a stranger' }),
   'post /api/rinks/:rinkSlug/tickets': () => ({ customerId: f.desk.customerId, pairs: [{ label: 'Swept', serviceId: f.desk.serviceId }] }),
   'post /api/rinks/:rinkSlug/tickets/:ticketId/transitions': () => ({ to: 'void', reason: 'voided by a stranger' }),
+  'post /api/rinks/:rinkSlug/products': () => ({ kind: 'single', name: 'Swept single', credits: 1, priceMinor: 900 }),
+  'patch /api/rinks/:rinkSlug/products/:productId': () => ({ active: false }),
+  'post /api/rinks/:rinkSlug/customers/:customerId/redemptions': () => ({}),
+  'post /api/rinks/:rinkSlug/customers/:customerId/adjustments': () => ({ credits: -1, reason: 'taken by a stranger' }),
+  'post /api/rinks/:rinkSlug/customers/:customerId/sales': () => ({ productId: f.desk.productId, paymentMethodId: 'cash' }),
+  'post /api/rinks/:rinkSlug/payments/:paymentId/refunds': () => ({ reason: 'refunded by a stranger' }),
+  'post /api/rinks/:rinkSlug/memberships/:membershipId/cancel': () => ({ when: 'now' }),
+  'post /api/rinks/:rinkSlug/billing/test-clock': () => ({ days: 1 }),
+  'post /api/rinks/:rinkSlug/leagues': () => ({ name: 'Swept league' }),
+  'post /api/rinks/:rinkSlug/leagues/:leagueId/roster': () => ({ csv: 'team,name,email\nSwept,Swept Player,swept@example.test\n' }),
+  'post /api/rinks/:rinkSlug/leagues/:leagueId/allocations': () => ({ teamId: f.desk.leagueId, credits: 1 }),
+  'post /api/rinks/:rinkSlug/leagues/:leagueId/checkout': () => ({ productId: f.desk.productId }),
   'post /api/rinks/:rinkSlug/tickets/:ticketId/sharpenings': () => ({
     pairId: f.desk.pairId,
     stationId: f.desk.stationId,

@@ -1,5 +1,7 @@
+import { randomUUID } from 'node:crypto';
 import { createSharpening, createTicket, addMember } from '@rinkwright/db/testing';
-import { isTenantTable, sharpening, station as stationTable, ticket, ticketEvent } from '@rinkwright/db';
+import { isTenantTable, league, leagueTeam, payment, product, productPrice, scoped, sharpening, station as stationTable, ticket, ticketEvent } from '@rinkwright/db';
+import * as ledger from '../../apps/api/src/lib/ledger/ledger';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { count, eq } from 'drizzle-orm';
 import { getTableConfig } from 'drizzle-orm/mysql-core';
@@ -34,12 +36,34 @@ async function countsOf(rinkId: string): Promise<Record<string, number>> {
   return counts;
 }
 
+/** A product, a paid cash sale with its credits, and a league with a team: what the credit writes act on. */
+async function billingFixture(rinkId: string, customerId: string) {
+  const s = scoped(rinkId);
+  const now = new Date();
+  const [productId, priceId, paymentId, leagueId, teamId] = [randomUUID(), randomUUID(), randomUUID(), randomUUID(), randomUUID()];
+  await s.insert(product, { id: productId, kind: 'punch_card', name: 'Keyless card', credits: 5, monthsValid: 12, createdAt: now, updatedAt: now });
+  await s.insert(productPrice, { id: priceId, productId, amountMinor: 2500, currency: 'USD' });
+  await s.insert(payment, { id: paymentId, customerId, productId, priceId, channel: 'counter', state: 'paid', amountMinor: 2500, currency: 'USD', feeMinor: 0, paidAt: now });
+  await s.insert(league, { id: leagueId, name: 'Keyless league' });
+  await s.insert(leagueTeam, { id: teamId, leagueId, name: 'Keyless team' });
+  const account = await ledger.skaterAccount(s, customerId);
+  await ledger.addLot(s, { accountId: account.id, key: `keyless:${paymentId}`, actor: { userId: null, source: 'payment', sourceId: paymentId }, kind: 'purchase', lot: { origin: 'purchase', credits: 5, priceMinor: 2500, productId, paymentId } });
+  const pool = await ledger.poolAccount(s, leagueId);
+  await ledger.adjust(s, { accountId: pool.id, key: `keyless-pool:${leagueId}`, actor: { userId: null, source: 'staff', sourceId: null }, credits: 5 });
+  return { productId, paymentId, leagueId, teamId };
+}
+
 describe('the Idempotency-Key header', () => {
   interface Ids {
     stationId: string;
     ticketId: string;
     pairId: string;
     sharpeningId: string;
+    customerId: string;
+    productId: string;
+    paymentId: string;
+    leagueId: string;
+    teamId: string;
   }
   let desk: Desk;
   const ids = {} as Ids;
@@ -64,6 +88,11 @@ describe('the Idempotency-Key header', () => {
     'post /api/rinks/:rinkSlug/tickets/:ticketId/sharpenings': () => logBody(desk, { pairId: ids.pairId }),
     'post /api/rinks/:rinkSlug/sharpenings/:sharpeningId/readings': () => ({ readings: [{ blade: 'left', readingNm: 1_270 }] }),
     'post /api/rinks/:rinkSlug/sharpenings/:sharpeningId/corrections': () => ({ reason: 'Passes miscounted', hollowNm: HALF_INCH_NM, passes: 5, bladeWidthNm: HOCKEY_WIDTH_NM }),
+    'post /api/rinks/:rinkSlug/customers/:customerId/redemptions': () => ({}),
+    'post /api/rinks/:rinkSlug/customers/:customerId/adjustments': () => ({ credits: 2, reason: 'Keyless grant' }),
+    'post /api/rinks/:rinkSlug/customers/:customerId/sales': () => ({ productId: ids.productId, paymentMethodId: 'cash' }),
+    'post /api/rinks/:rinkSlug/payments/:paymentId/refunds': () => ({ reason: 'Keyless refund' }),
+    'post /api/rinks/:rinkSlug/leagues/:leagueId/allocations': () => ({ teamId: ids.teamId, credits: 1 }),
   };
 
   const pathFor = (route: Route) =>
@@ -98,7 +127,8 @@ describe('the Idempotency-Key header', () => {
       stationId: desk.station.id,
       technicianId: desk.world.staff.technician.id,
     });
-    Object.assign(ids, { stationId: desk.station.id, ticketId: made.id, pairId: made.pairIds[1] ?? '', sharpeningId: done.id });
+    const billing = await billingFixture(desk.world.id, desk.skater.id);
+    Object.assign(ids, { stationId: desk.station.id, ticketId: made.id, pairId: made.pairIds[1] ?? '', sharpeningId: done.id, customerId: desk.skater.id, ...billing });
   });
 
   it('is required by the counter writes of the route table', () => {
