@@ -13,6 +13,7 @@ import {
 } from './factories';
 import demo from './demo-sign-ins.json';
 import { rink } from './schema/index';
+import { seedBilling } from './seed-billing';
 import { seedDesk } from './seed-desk';
 
 // The demo: two independent, invented rinks. Everything comes from the shared factories and one fixed seed.
@@ -106,6 +107,38 @@ export async function seedDemo(db: Database): Promise<'seeded' | 'already-seeded
       ticketsPerDay: 4,
       priceMinor: 1000,
       days: 182,
+      now,
+    });
+    await seedBilling(tx as unknown as Database, faker, {
+      rinkId: iceHarbor.id,
+      currency: 'CAD',
+      products: [
+        { kind: 'punch_card', name: 'Ten sharpenings', credits: 10, priceMinor: 11000, monthsValid: 12, description: 'Ten standard sharpenings, a year to use them.' },
+        { kind: 'punch_card', name: 'Five sharpenings', credits: 5, priceMinor: 5800, monthsValid: 6 },
+        { kind: 'single', name: 'Single sharpening', credits: 1, priceMinor: 1200, monthsValid: 3 },
+        { kind: 'membership', name: 'Monthly edge club', credits: 4, priceMinor: 3900, interval: 'month', rolloverCap: 2, graceDays: 7, description: 'Four sharpenings a month; up to two unused carry into the next month.' },
+        { kind: 'league_pack', name: 'League pack of 100', credits: 100, priceMinor: 90000, monthsValid: 10 },
+      ],
+      sales: 140,
+      technicianIds: staffOf('tech@ice-harbor.test', 'manager@ice-harbor.test'),
+      managerId: users.get('manager@ice-harbor.test') ?? null,
+      leagueManagerId: users.get('league@ice-harbor.test') ?? null,
+      planState: 'active',
+      stations: 3,
+      now,
+    });
+    await seedBilling(tx as unknown as Database, faker, {
+      rinkId: northPond.id,
+      currency: 'CAD',
+      products: [
+        { kind: 'punch_card', name: 'Six sharpenings', credits: 6, priceMinor: 5400, monthsValid: 12 },
+        { kind: 'single', name: 'Single sharpening', credits: 1, priceMinor: 1000, monthsValid: 3 },
+      ],
+      sales: 40,
+      technicianIds: staffOf('tech@north-pond.test', 'manager@north-pond.test'),
+      managerId: users.get('manager@north-pond.test') ?? null,
+      planState: 'past_due',
+      stations: 1,
       now,
     });
   });
