@@ -1,5 +1,5 @@
 // What start, dev and test share: the common bootstrap, the ports, and the services they run.
-import { join, relative } from 'node:path';
+import { dirname, join, relative } from 'node:path';
 import { ROOT, ensureDataDirs, fail, loadSecrets, paths } from './data.mjs';
 import { CHROMIUM, MARIADB, ensurePnpm, ensureSystemPackages, installDependencies } from './install.mjs';
 import { databaseUrl, ensureMariadb, setupDatabase } from './mariadb.mjs';
@@ -134,7 +134,8 @@ export function fakeServices(ports, mailDir, logPrefix = '') {
       // Loading tsx as a hook keeps the server in one process, so the recorded pid is the server itself.
       cmd: process.execPath,
       args: ['--import', 'tsx', 'apps/stripe-fake/src/server.ts'],
-      env: { STRIPE_FAKE_HOST: '127.0.0.1', STRIPE_FAKE_PORT: String(ports.stripe) },
+      // The demo's payment objects outlive a restart (its database does too); the tests' start empty each run.
+      env: { STRIPE_FAKE_HOST: '127.0.0.1', STRIPE_FAKE_PORT: String(ports.stripe), ...(logPrefix ? { STRIPE_FAKE_RETRY_BASE_MS: '250' } : { STRIPE_FAKE_STATE_FILE: join(dirname(mailDir), 'stripe-fake.json') }) },
       health: `http://127.0.0.1:${ports.stripe}/health`,
     },
   ];
