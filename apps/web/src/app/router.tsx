@@ -30,12 +30,16 @@ export function createAppRouter(client: QueryClient) {
         { path: 'forgot-password', lazy: () => import('../features/auth/routes/forgot-password') },
         { path: 'reset-password', lazy: () => import('../features/auth/routes/reset-password') },
         { path: 'invitations/:invitationId', lazy: () => import('../features/staff/routes/accept-invitation') },
+        { path: 'r/:slug', lazy: () => import('../features/storefront/routes/rink-page') },
+        { path: 'r/:slug/thanks', lazy: () => import('../features/storefront/routes/thanks') },
         {
           loader: requireUser,
           children: [
             { path: 'rinks', lazy: () => import('../features/rinks/routes/rink-chooser') },
             { path: 'rinks/new', lazy: () => import('../features/rinks/routes/create-rink') },
             { path: 'account', lazy: () => import('../features/account/routes/account') },
+            { path: 'portal', lazy: () => import('../features/portal/routes/portal-home') },
+            { path: 'portal/:slug', lazy: () => import('../features/portal/routes/portal-rink') },
             { path: 'platform', lazy: () => import('../features/platform/routes/platform-rinks') },
             {
               path: 'rinks/:rinkSlug',
@@ -45,10 +49,19 @@ export function createAppRouter(client: QueryClient) {
                 { index: true, lazy: () => import('../features/rinks/routes/rink-overview') },
                 { path: 'counter', lazy: () => import('../features/desk/routes/counter') },
                 { path: 'tickets/:ticketId', lazy: () => import('../features/desk/routes/ticket') },
-                { path: 'customers/:customerId', lazy: () => import('../features/desk/routes/customer') },
+                {
+                  path: 'customers/:customerId',
+                  lazy: () => import('../features/desk/routes/customer'),
+                  // The credits panel belongs to sales; the customer page leaves it a place (its Outlet).
+                  children: [{ index: true, lazy: () => import('../features/sales/routes/customer-credits') }],
+                },
                 { path: 'stations', lazy: () => import('../features/stations/routes/stations') },
                 { path: 'stations/:stationId', lazy: () => import('../features/stations/routes/station') },
                 { path: 'services', lazy: () => import('../features/catalog/routes/services') },
+                { path: 'products', lazy: () => import('../features/sales/routes/products') },
+                { path: 'billing', lazy: () => import('../features/sales/routes/billing') },
+                { path: 'leagues', lazy: () => import('../features/leagues/routes/leagues') },
+                { path: 'leagues/:leagueId', lazy: () => import('../features/leagues/routes/league') },
                 { path: 'staff', lazy: () => import('../features/staff/routes/staff') },
                 { path: 'settings', lazy: () => import('../features/rinks/routes/rink-settings') },
               ],

@@ -3,6 +3,7 @@ import { Alert, Loading } from '../../components/ui/feedback';
 import { NotFound } from '../../components/ui/not-found';
 import { PendingWrites } from '../../components/ui/pending-writes';
 import { useRinkSummary } from '../../features/rinks/api/get-rink';
+import { PlanBanner } from '../../features/sales/components/plan-banner';
 import { ApiError } from '../../lib/api-client';
 import { can } from '../../lib/rink-context';
 
@@ -25,6 +26,9 @@ export function RinkLayout() {
     { to: 'counter', label: 'Counter', show: can(summary, 'ticket', 'read') },
     { to: 'stations', label: 'Stations', show: can(summary, 'station', 'read') },
     { to: 'services', label: 'Services', show: can(summary, 'service', 'manage') },
+    { to: 'products', label: 'Products', show: can(summary, 'product', 'read') },
+    { to: 'leagues', label: 'Leagues', show: can(summary, 'league', 'read') },
+    { to: 'billing', label: 'Billing', show: can(summary, 'billing', 'read') },
     { to: 'staff', label: 'Staff', show: can(summary, 'member', 'read') },
     { to: 'settings', label: 'Settings', show: can(summary, 'rink', 'update') },
   ].filter((l) => l.show);
@@ -44,6 +48,7 @@ export function RinkLayout() {
           </NavLink>
         ))}
       </nav>
+      <PlanBanner rink={summary} />
       <PendingWrites rinkSlug={summary.slug} />
       <Outlet context={summary} />
     </div>

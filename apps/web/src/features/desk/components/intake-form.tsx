@@ -1,3 +1,4 @@
+import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useNavigate } from 'react-router';
 import { createTicketInput, type CustomerRow, type PairInput, type RinkSummary } from '@rinkwright/core';
@@ -8,12 +9,15 @@ import { ApiError } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { useServices } from '../../../lib/queries/services';
 import { lengthInput, parseLength, showLength } from '../../../lib/units';
+import { useCreditBalance } from '../api/get-credit-balance';
+import { useCounterTeams } from '../api/get-counter-teams';
 import { useCustomer } from '../api/get-customer';
 import { usePromise } from '../api/get-promise';
 import { useCounterWrite, writes } from '../api/counter-writes';
 import { HollowField } from './hollow-field';
 
 type Row = PairInput & { key: number };
+type Payment = 'credit' | 'allocation' | 'counter' | 'no_charge';
 
 /** Take skates in: a pair per row (from the skater's profiles or typed), the service, how it is paid, the promise. */
 export function IntakeForm({ rink, customer, onDone }: { rink: RinkSummary; customer: CustomerRow; onDone: () => void }) {
@@ -23,7 +27,11 @@ export function IntakeForm({ rink, customer, onDone }: { rink: RinkSummary; cust
   const active = (services.data?.services ?? []).filter((s) => s.active);
   const standard = active.find((s) => s.kind === 'standard') ?? active[0];
   const [rows, setRows] = useState<Row[]>([]);
-  const [payment, setPayment] = useState<'counter' | 'no_charge'>('counter');
+  const [payment, setPayment] = useState<Payment>('counter');
+  const [teamId, setTeamId] = useState('');
+  const client = useQueryClient();
+  const balance = useCreditBalance(rink.slug, customer.id, rink.permissions.credit?.includes('read') ?? false);
+  const teams = useCounterTeams(rink.slug, payment === 'allocation');
   const [note, setNote] = useState<{ tone: 'error' | 'success'; text: string } | null>(null);
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const promise = usePromise(rink.slug, Math.max(1, rows.length));
@@ -44,7 +52,7 @@ export function IntakeForm({ rink, customer, onDone }: { rink: RinkSummary; cust
 
   async function submit() {
     setNote(null);
-    const input = { customerId: customer.id, payment, notes: null, pairs: rows.map(({ key: _k, ...p }) => p) };
+    const input = { customerId: customer.id, payment, teamId: payment === 'allocation' ? teamId || null : null, notes: null, pairs: rows.map(({ key: _k, ...p }) => p) };
     const parsed = createTicketInput.safeParse(input);
     if (!parsed.success) {
       const fields: Record<string, string[]> = {};
@@ -60,10 +68,14 @@ export function IntakeForm({ rink, customer, onDone }: { rink: RinkSummary; cust
         setRows([]);
         return;
       }
+      void client.invalidateQueries({ queryKey: ['rink', rink.slug, 'credits'] });
+      void client.invalidateQueries({ queryKey: ['rink', rink.slug, 'leagues'] });
       onDone();
       navigate(`/rinks/${rink.slug}/tickets/${outcome.result.id}`);
     } catch (error) {
       if (error instanceof ApiError && error.fields) setErrors(error.fields);
+      // Not enough credits is about how the pairs are paid: shown by that choice, not only at the top.
+      else if (error instanceof ApiError && error.code === 'insufficient_credits') setErrors({ payment: [error.message] });
       setNote({ tone: 'error', text: error instanceof Error ? error.message : 'The ticket was not saved' });
     }
   }
@@ -120,14 +132,16 @@ export function IntakeForm({ rink, customer, onDone }: { rink: RinkSummary; cust
         ))}
       </ol>
       <div className="flex flex-wrap items-end justify-between gap-4">
-        <SelectField
-          label="Paid"
-          value={payment}
-          onChange={(e) => setPayment(e.target.value as 'counter' | 'no_charge')}
-          options={[
-            { value: 'counter', label: 'At the counter' },
-            { value: 'no_charge', label: 'No charge' },
-          ]}
+        <PaymentChoice
+          rink={rink}
+          payment={payment}
+          onPayment={setPayment}
+          teamId={teamId}
+          onTeam={setTeamId}
+          credits={balance.data?.credits}
+          teams={teams.data?.teams}
+          creditPairs={rows.filter((r) => active.find((sv) => sv.id === r.serviceId)?.kind === 'standard').length}
+          errors={errors}
         />
         <p className="text-sm" aria-live="polite">
           {promise.data ? (
@@ -143,6 +157,60 @@ export function IntakeForm({ rink, customer, onDone }: { rink: RinkSummary; cust
           {busy ? 'Saving…' : `Take in ${rows.length || ''} pair${rows.length === 1 ? '' : 's'}`}
         </Button>
       </div>
+    </div>
+  );
+}
+
+/** How the ticket is paid; a credit or an allocation pays one credit per standard-sharpening pair. */
+function PaymentChoice({
+  rink,
+  payment,
+  onPayment,
+  teamId,
+  onTeam,
+  credits,
+  teams,
+  creditPairs,
+  errors,
+}: {
+  rink: RinkSummary;
+  payment: Payment;
+  onPayment: (p: Payment) => void;
+  teamId: string;
+  onTeam: (id: string) => void;
+  credits: number | undefined;
+  teams: { id: string; name: string; leagueName: string; credits: number }[] | undefined;
+  creditPairs: number;
+  errors: Record<string, string[]>;
+}) {
+  const drawn = payment === 'credit' || payment === 'allocation';
+  return (
+    <div className="min-w-64 space-y-2">
+      <SelectField
+        label="Paid"
+        value={payment}
+        onChange={(e) => onPayment(e.target.value as Payment)}
+        error={errors.payment?.join(' ')}
+        hint={drawn ? `One credit per standard-sharpening pair: ${creditPairs} credit${creditPairs === 1 ? '' : 's'} for this ticket.` : undefined}
+        options={[
+          { value: 'counter', label: 'At the counter' },
+          ...(rink.permissions.credit?.includes('read') ? [{ value: 'credit', label: `From the skater's credits (${credits ?? '…'} left)` }] : []),
+          { value: 'allocation', label: "From a team's allocation" },
+          { value: 'no_charge', label: 'No charge' },
+        ]}
+      />
+      {payment === 'allocation' ? (
+        <SelectField
+          label="Team"
+          value={teamId}
+          onChange={(e) => onTeam(e.target.value)}
+          error={errors.teamId?.join(' ')}
+          options={[
+            { value: '', label: teams ? (teams.length ? 'Choose the team' : 'No team has an allocation') : 'Loading teams…' },
+            ...(teams ?? []).map((t) => ({ value: t.id, label: `${t.name} · ${t.leagueName} · ${t.credits} credit${t.credits === 1 ? '' : 's'} left` })),
+          ]}
+        />
+      ) : null}
     </div>
   );
 }

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { Link, useParams } from 'react-router';
+import { Link, Outlet, useParams } from 'react-router';
 import type { SkateProfileInput, SkateProfileRow } from '@rinkwright/core';
 import { Button } from '../../../components/ui/button';
 import { Alert, Loading } from '../../../components/ui/feedback';
@@ -109,6 +109,8 @@ export function Component() {
           <p className="max-w-md text-sm text-ink-soft">The skater can show this code (it is also in their portal); scanning it or typing it in the counter's search finds them at once.</p>
         </div>
       </Card>
+      {/* The credits panel is another feature's nested route; the router puts it here. */}
+      <Outlet context={{ rink, customer: { id: customer.id, name: customer.name } }} />
       <Card title="Skate profiles">
         <ul className="mb-4 divide-y divide-rule">
           {profiles.map((p) => (

@@ -52,6 +52,7 @@ export function Component() {
               ))}
             </ul>
           )}
+          <Link to="/portal" className="mt-3 flex min-h-11 items-center font-semibold text-steel underline">My skates: credits, history and readings</Link>
         </Card>
       </div>
     </div>

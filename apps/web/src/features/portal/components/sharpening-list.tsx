@@ -1,0 +1,52 @@
+import type { LevelBands, PortalRinkDetail, UnitPreference } from '@rinkwright/core';
+import { LevelScale } from '../../../components/ui/level-reading';
+import { formatDateTime } from '../../../lib/format';
+import { showLength } from '../../../lib/units';
+
+type Sharpening = PortalRinkDetail['sharpenings'][number];
+
+/** Each blade's readings side by side in the order taken: a re-run never replaces the first reading. */
+function Readings({ readings, bands, unit }: { readings: Sharpening['readings']; bands: LevelBands; unit: UnitPreference }) {
+  if (readings.length === 0) return <p className="text-sm text-ink-soft">No level reading was taken.</p>;
+  return (
+    <div className="grid gap-3 sm:grid-cols-2">
+      {(['left', 'right'] as const).map((blade) => {
+        const own = readings.filter((r) => r.blade === blade).sort((a, b) => a.attempt - b.attempt);
+        if (own.length === 0) return null;
+        return (
+          <div key={blade}>
+            <p className="mb-1 text-sm font-bold">{blade === 'left' ? 'Left skate' : 'Right skate'}</p>
+            <ul className="flex flex-wrap gap-2">
+              {own.map((r) => (
+                <li key={r.id} className="min-w-40 flex-1 rounded-lg bg-frost p-2">
+                  <p className="mb-1 text-xs text-ink-soft tabular-nums">{r.attempt === 1 ? 'Attempt 1' : `Attempt ${r.attempt} (re-run)`}</p>
+                  <LevelScale readingNm={r.readingNm} bands={bands} unit={unit} />
+                </li>
+              ))}
+            </ul>
+          </div>
+        );
+      })}
+    </div>
+  );
+}
+
+export function SharpeningList({ sharpenings, bands, unit, timeZone }: { sharpenings: Sharpening[]; bands: LevelBands; unit: UnitPreference; timeZone: string }) {
+  if (sharpenings.length === 0) return <p className="text-ink-soft">No sharpening on record yet.</p>;
+  return (
+    <ul className="space-y-4">
+      {sharpenings.map((s) => (
+        <li key={s.id} className="rounded-lg border border-rule p-3">
+          <p className="font-semibold tabular-nums">
+            {formatDateTime(s.doneAt, timeZone)} · Ticket {s.ticketNumber} · {s.pairLabel}
+          </p>
+          <p className="mb-2 text-sm tabular-nums">
+            {showLength(s.hollowNm, unit, 'hollow')} hollow · {showLength(s.bladeWidthNm, unit, 'width')} blade · {s.passes} {s.passes === 1 ? 'pass' : 'passes'} ·{' '}
+            {s.stationName}
+          </p>
+          <Readings readings={s.readings} bands={bands} unit={unit} />
+        </li>
+      ))}
+    </ul>
+  );
+}
