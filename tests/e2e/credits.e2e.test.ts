@@ -13,6 +13,7 @@ describe('buying credits online and redeeming one at the counter', () => {
   it('goes from the public page through hosted checkout to a redemption', async () => {
     const owner = await openSession(browser(), 'credits-owner');
     await signIn(owner, 'owner@ice-harbor.test');
+    await owner.page.waitForURL(/\/rinks/);
     const account = await owner.page.evaluate(async () => {
       await fetch('/api/rinks/ice-harbor/billing/payout-account', { method: 'POST' });
       return (await (await fetch('/api/rinks/ice-harbor/billing')).json()).payout.accountId as string;
@@ -43,6 +44,7 @@ describe('buying credits online and redeeming one at the counter', () => {
 
     const tech = await openSession(browser(), 'credits-technician');
     await signIn(tech, 'tech@ice-harbor.test');
+    await tech.page.waitForURL(/\/rinks/);
     const customerId = await tech.page.evaluate(async (q) => (await (await fetch(`/api/rinks/ice-harbor/customers?q=${encodeURIComponent(q)}`)).json()).customers[0].id as string, email);
     await tech.page.goto(`/rinks/ice-harbor/customers/${customerId}`);
     await tech.page.getByRole('button', { name: 'Redeem one credit' }).click();

@@ -88,7 +88,7 @@ describe('a new rink gets going', () => {
     await page.getByText('You are signed in as technician.').waitFor();
     const sections = page.getByRole('navigation', { name: `${rinkName} sections` });
     await sections.waitFor();
-    expect(await sections.getByRole('link').allTextContents()).toEqual(['Overview', 'Counter', 'Stations']);
+    expect(await sections.getByRole('link').allTextContents()).toEqual(['Overview', 'Counter', 'Stations', 'Products', 'Leagues']);
     await session.shot('technician-overview');
 
     // Typing the manager pages' addresses shows them as not found, not a half-working screen.

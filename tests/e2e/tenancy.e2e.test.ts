@@ -30,7 +30,7 @@ describe('one rink never sees another', () => {
     await page.waitForURL('**/rinks/ice-harbor');
     const sections = page.getByRole('navigation', { name: 'Ice Harbor sections' });
     await sections.waitFor();
-    expect(await sections.getByRole('link').allTextContents()).toEqual(['Overview', 'Counter', 'Stations', 'Services', 'Staff', 'Settings']);
+    expect(await sections.getByRole('link').allTextContents()).toEqual(['Overview', 'Counter', 'Stations', 'Services', 'Products', 'Leagues', 'Billing', 'Staff', 'Settings']);
     await sections.getByRole('link', { name: 'Staff' }).click();
     await page.getByRole('cell', { name: 'tech@ice-harbor.test', exact: true }).waitFor();
     await session.shot('staff');
