@@ -1,4 +1,5 @@
 import type { Express, Request } from 'express';
+import { graceLapsed } from '@rinkwright/core';
 import type { z } from 'zod';
 import type { Auth } from '../auth';
 import { roleAllows } from '../access';
@@ -37,7 +38,7 @@ async function contextFor(route: Route, auth: Auth, req: Request): Promise<unkno
       // An unpaid plan past its grace leaves the rink readable, and only its billing can change (to pay it).
       if (route.method !== 'get' && !route.permission?.billing) {
         const plan = await directory.findPlanState(ctx.tenantId);
-        const lapsed = plan && (plan.planState === 'read_only' || (plan.planState === 'past_due' && plan.graceUntil !== null && plan.graceUntil <= new Date()));
+        const lapsed = plan && (plan.planState === 'read_only' || graceLapsed(plan.planState, plan.graceUntil, new Date()));
         if (lapsed) throw new AppError('read_only', 'This rink is read-only until its Rinkwright plan is paid');
       }
       return ctx;

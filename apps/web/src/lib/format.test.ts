@@ -9,7 +9,9 @@ describe('money in the rink currency', () => {
 
   it('parses typed amounts into minor units and refuses extra decimals', () => {
     expect(parseMoney('12.5', 'CAD')).toBe(1250);
+    expect(parseMoney('12.50', 'CAD')).toBe(1250);
     expect(parseMoney('12,50', 'EUR')).toBe(1250);
+    expect(parseMoney('0', 'CAD')).toBe(0);
     expect(parseMoney('.5', 'CAD')).toBe(50);
     expect(parseMoney('12.505', 'CAD')).toBeNull();
     expect(parseMoney('1200', 'JPY')).toBe(1200);
@@ -20,6 +22,7 @@ describe('money in the rink currency', () => {
 
   it('round-trips minor units through the typed form', () => {
     for (const minor of [0, 5, 99, 1375, 100000]) expect(parseMoney(moneyInput(minor, 'CAD'), 'CAD')).toBe(minor);
+    expect(moneyInput(1250, 'CAD')).toBe('12.50');
     expect(moneyInput(1200, 'JPY')).toBe('1200');
   });
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { creditBalance, deferredRevenueMinor, expiredLots, lotToRedeem, lotValueMinor, membershipRollover, punchCardRefund, type Lot } from './credits';
+import { creditBalance, deferredRevenueMinor, expiredLots, graceLapsed, lotToRedeem, lotValueMinor, membershipRollover, punchCardRefund, type Lot } from './credits';
 
 const day = (d: number) => new Date(Date.UTC(2026, 0, 1 + d));
 const lot = (over: Partial<Lot> & { id: string }): Lot => ({ credits: 10, remaining: 10, priceMinor: 10_000, expiresAt: day(365), createdAt: day(0), ...over });
@@ -66,5 +66,16 @@ describe('membership rollover', () => {
     expect(membershipRollover({ remaining: 5, cap: 2 })).toEqual({ carried: 2, expired: 3 });
     expect(membershipRollover({ remaining: 1, cap: 2 })).toEqual({ carried: 1, expired: 0 });
     expect(() => membershipRollover({ remaining: -1, cap: 2 })).toThrow(RangeError);
+  });
+});
+
+describe('grace after a failed payment', () => {
+  const now = new Date('2026-12-02T12:00:00Z');
+  it('lapses only for an unpaid state whose grace has ended (the end itself counts as ended)', () => {
+    expect(graceLapsed('past_due', new Date('2026-12-02T12:00:00Z'), now)).toBe(true);
+    expect(graceLapsed('past_due', new Date('2026-12-01T00:00:00Z'), now)).toBe(true);
+    expect(graceLapsed('past_due', new Date('2026-12-03T00:00:00Z'), now)).toBe(false);
+    expect(graceLapsed('past_due', null, now)).toBe(false);
+    expect(graceLapsed('active', new Date('2026-12-01T00:00:00Z'), now)).toBe(false);
   });
 });

@@ -82,6 +82,14 @@ export function punchCardRefund(lot: Lot, now: Date): { credits: number; refundM
   return { credits: lot.remaining, refundMinor: lotValueMinor(lot) };
 }
 
+/**
+ * A failed payment leaves something usable until its grace ends: a membership's credits, a rink's plan. Past the
+ * grace, and still unpaid, the credits stop redeeming and the rink turns read-only.
+ */
+export function graceLapsed(state: string | null, graceUntil: Date | null, now: Date): boolean {
+  return state === 'past_due' && graceUntil !== null && graceUntil <= now;
+}
+
 /** At a membership renewal, unused credits carry over up to the cap; the rest expire. */
 export function membershipRollover(input: { remaining: number; cap: number }): { carried: number; expired: number } {
   const { remaining, cap } = input;

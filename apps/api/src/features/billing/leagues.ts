@@ -1,10 +1,11 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { parse } from 'csv-parse/sync';
 import { and, asc, eq, sql } from 'drizzle-orm';
-import { memberCode, rosterRow, type AllocationInput, type LeagueDetail, type LeagueInput, type RosterResult, type RosterRow } from '@rinkwright/core';
+import { rosterRow, type AllocationInput, type LeagueDetail, type LeagueInput, type RosterResult, type RosterRow } from '@rinkwright/core';
 import { creditEntry, customer, league, leaguePlayer, leagueTeam, member, rosterImport, scoped, user, type Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
+import { insertNewCustomer } from '../../lib/customers';
 import * as ledger from '../../lib/ledger/ledger';
 import { describeProducts } from './catalog';
 import * as repo from './repository';
@@ -23,7 +24,7 @@ async function requireLeague(ctx: RinkContext, leagueId: string) {
   return found;
 }
 
-export async function listLeagues(ctx: RinkContext) {
+export async function listLeagues(ctx: RinkContext, onlyLeagueId?: string) {
   const s = scoped(ctx.tenantId);
   const rows = await s.findJoined(league, {
     fields: {
@@ -36,7 +37,7 @@ export async function listLeagues(ctx: RinkContext) {
       players: sql<number>`(select count(*) from ${leaguePlayer} where ${leaguePlayer.tenantId} = ${league.tenantId} and ${leaguePlayer.leagueId} = ${league.id})`.mapWith(Number),
     },
     joins: [],
-    where: ctx.role === 'league_manager' ? eq(league.managerUserId, ctx.userId) : undefined,
+    where: and(ctx.role === 'league_manager' ? eq(league.managerUserId, ctx.userId) : undefined, onlyLeagueId ? eq(league.id, onlyLeagueId) : undefined),
     orderBy: asc(league.name),
   });
   const leagues = [];
@@ -109,7 +110,8 @@ export async function describeLeague(ctx: RinkContext, leagueId: string): Promis
     where: eq(rosterImport.leagueId, leagueId),
     orderBy: asc(rosterImport.createdAt),
   });
-  const summary = (await listLeagues(ctx)).leagues.find((l) => l.id === found.id)!;
+  const [summary] = (await listLeagues(ctx, found.id)).leagues;
+  if (!summary) throw AppError.notFound(NOT_FOUND);
   return {
     league: summary,
     pool: { credits: poolBalance.credits, valueMinor: poolBalance.valueMinor, currency: rink?.currency ?? 'USD', lots: poolBalance.lots },
@@ -200,11 +202,7 @@ async function findOrCreatePlayer(tx: Scope, row: RosterRow): Promise<{ id: stri
   if (byEmail) return { id: byEmail.id, created: false };
   const byName = !row.email && row.phone ? await tx.findOne(customer, and(eq(customer.name, row.name), eq(customer.phone, row.phone))!) : undefined;
   if (byName) return { id: byName.id, created: false };
-  let code = memberCode();
-  while ((await tx.count(customer, eq(customer.memberCode, code))) > 0) code = memberCode();
-  const id = randomUUID();
-  await tx.insert(customer, { id, name: row.name, email: row.email, phone: row.phone, memberCode: code, userId: null });
-  return { id, created: true };
+  return { id: await insertNewCustomer(tx, { name: row.name, email: row.email, phone: row.phone }), created: true };
 }
 
 // ---- credits ------------------------------------------------------------------------------------------------

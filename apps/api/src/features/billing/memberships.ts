@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import type Stripe from 'stripe';
-import type { MembershipRow } from '@rinkwright/core';
-import type { Scope } from '@rinkwright/db';
+import { graceLapsed, type MembershipRow } from '@rinkwright/core';
+import { isDuplicateKey, type Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import * as ledger from '../../lib/ledger/ledger';
 import { noticeMail } from '../../lib/mailer';
@@ -50,7 +50,9 @@ export async function syncMembership(s: Scope, deps: SalesDeps, account: string,
   } else {
     try {
       await repo.insertMembership(s, { id: randomUUID(), customerId, productId, subscriptionId: sub.id, serviceUpdatedAt: 0, createdAt: new Date(), ...set });
-    } catch {
+    } catch (error) {
+      // Another delivery about the same subscription made the row a moment ago.
+      if (!isDuplicateKey(error)) throw error;
       await repo.updateMembership(s, (await repo.findMembershipBySubscription(s, sub.id))!.id, set);
     }
   }
@@ -139,8 +141,9 @@ async function paymentOfInvoice(s: Scope, deps: SalesDeps, account: string, invo
       createdBy: null,
     });
     return id;
-  } catch {
+  } catch (error) {
     // Another delivery of the same invoice made the row a moment ago.
+    if (!isDuplicateKey(error)) throw error;
     return (await repo.findPaymentByInvoice(s, invoice.id!))!.id;
   }
 }
@@ -169,7 +172,7 @@ export async function membershipRows(s: Scope, customerId: string): Promise<Memb
   return rows.map((r) => ({
     id: r.id,
     productName: r.productName,
-    state: r.state === 'past_due' && r.graceUntil !== null && r.graceUntil <= now ? 'blocked' : r.state,
+    state: graceLapsed(r.state, r.graceUntil, now) ? 'blocked' : r.state,
     periodEnd: r.periodEnd?.toISOString() ?? null,
     cancelAtPeriodEnd: r.cancelAtPeriodEnd === 1,
     graceUntil: r.graceUntil?.toISOString() ?? null,

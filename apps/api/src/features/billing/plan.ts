@@ -1,5 +1,5 @@
 import type Stripe from 'stripe';
-import type { BillingResponse } from '@rinkwright/core';
+import { graceLapsed, type BillingResponse } from '@rinkwright/core';
 import { scoped, type Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
@@ -35,8 +35,7 @@ export async function billingStatus(ctx: RinkContext, deps: SalesDeps): Promise<
 
 /** past_due turns into read_only when its grace runs out, even before the worker writes it down. */
 export function effectivePlanState(billing: Pick<repo.BillingRecord, 'planState' | 'planGraceUntil'>, now: Date): repo.BillingRecord['planState'] {
-  if (billing.planState === 'past_due' && billing.planGraceUntil && billing.planGraceUntil <= now) return 'read_only';
-  return billing.planState;
+  return graceLapsed(billing.planState, billing.planGraceUntil, now) ? 'read_only' : billing.planState;
 }
 
 /** Creates the payout account once and returns a fresh onboarding link to the payment service's pages. */
@@ -152,17 +151,4 @@ export async function advanceClocks(ctx: RinkContext, deps: SalesDeps, days: num
     if (billing.platformTestClockId) await move(billing.platformTestClockId);
   });
   return billingStatus(ctx, deps);
-}
-
-/** Keeps the plan's quantity equal to the active stations (called when a station's status changes). */
-export async function matchPlanToStations(s: Scope, deps: SalesDeps): Promise<void> {
-  const billing = await repo.findBilling(s);
-  if (!billing?.planSubscriptionId || billing.planState === 'canceled') return;
-  const stations = Math.max(1, await repo.countActiveStations(s));
-  if (stations === billing.planStations) return;
-  const sub = await deps.payments.subscriptions.retrieve(billing.planSubscriptionId);
-  const item = sub.items.data[0];
-  if (!item) return;
-  await deps.payments.subscriptions.update(sub.id, { items: [{ id: item.id, quantity: stations }] });
-  await repo.updateBilling(s, { planStations: stations });
 }

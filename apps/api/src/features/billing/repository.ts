@@ -9,6 +9,7 @@ import {
   productPrice,
   refund,
   rinkBilling,
+  isDuplicateKey,
   station,
   type Scope,
 } from '@rinkwright/db';
@@ -39,8 +40,9 @@ export async function ensureBilling(s: Scope, feeBps: number): Promise<BillingRe
   if (found) return found;
   try {
     await s.insert(rinkBilling, { feeBps, updatedAt: new Date() });
-  } catch {
-    // a concurrent request made it
+  } catch (error) {
+    // A concurrent request made it a moment ago; anything else is a real failure.
+    if (!isDuplicateKey(error)) throw error;
   }
   const made = await findBilling(s);
   if (!made) throw new Error('rink billing row missing');
@@ -52,9 +54,7 @@ export const countActiveStations = (s: Scope) => s.count(station, eq(station.sta
 // ---- customers ----
 export const findCustomer = (s: Scope, id: string) => s.findOne(customer, eq(customer.id, id));
 export const findCustomerByEmail = (s: Scope, email: string) => s.findOne(customer, eq(customer.email, email));
-export const insertCustomer = (s: Scope, row: Omit<typeof customer.$inferInsert, 'tenantId'>) => s.insert(customer, row);
 export const setPaymentCustomer = (s: Scope, customerId: string, paymentCustomerId: string) => s.update(customer, { paymentCustomerId }, eq(customer.id, customerId));
-export const memberCodeTaken = async (s: Scope, code: string) => (await s.count(customer, eq(customer.memberCode, code))) > 0;
 
 // ---- payments and refunds ----
 export const insertPayment = (s: Scope, row: Omit<typeof payment.$inferInsert, 'tenantId'>) => s.insert(payment, row);

@@ -1,10 +1,11 @@
 import { randomUUID } from 'node:crypto';
 import type Stripe from 'stripe';
-import { lotValueMinor, memberCode, punchCardRefund, type CounterSaleInput, type PaymentRow, type RefundQuote } from '@rinkwright/core';
-import { directory, scoped, type Scope } from '@rinkwright/db';
+import { lotValueMinor, punchCardRefund, type CounterSaleInput, type PaymentRow, type RefundQuote } from '@rinkwright/core';
+import { scoped, type Scope } from '@rinkwright/db';
 import type { Env } from '../../env';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
+import { insertNewCustomer } from '../../lib/customers';
 import * as ledger from '../../lib/ledger/ledger';
 import { receiptMail, type Mailer } from '../../lib/mailer';
 import { applicationFee, callPayments, type Payments } from '../../lib/payments';
@@ -40,11 +41,7 @@ export async function requireConnected(s: Scope) {
 export async function customerByEmail(s: Scope, email: string, name: string) {
   const found = await repo.findCustomerByEmail(s, email);
   if (found) return found;
-  let code = memberCode();
-  while (await repo.memberCodeTaken(s, code)) code = memberCode();
-  const person = await directory.findUserByEmail(email);
-  const id = randomUUID();
-  await repo.insertCustomer(s, { id, name, email, phone: null, memberCode: code, userId: person?.emailVerified ? person.id : null });
+  const id = await insertNewCustomer(s, { name, email, phone: null });
   const made = await repo.findCustomer(s, id);
   if (!made) throw new Error('customer vanished after insert');
   return made;

@@ -21,10 +21,6 @@ export function searchCustomers(tenantId: string, q: string, limit = 25) {
 
 export const findCustomer = (tenantId: string, customerId: string) => scoped(tenantId).findOne(customer, eq(customer.id, customerId));
 
-export const memberCodeTaken = async (tenantId: string, code: string) => (await scoped(tenantId).count(customer, eq(customer.memberCode, code))) > 0;
-
-export const insertCustomer = (tenantId: string, row: Omit<typeof customer.$inferInsert, 'tenantId'>) => scoped(tenantId).insert(customer, row);
-
 export const profilesOf = (tenantId: string, customerId: string) =>
   scoped(tenantId).find(skateProfile, { where: eq(skateProfile.customerId, customerId), orderBy: asc(skateProfile.label) });
 

@@ -1,8 +1,9 @@
 import { randomUUID } from 'node:crypto';
-import { memberCode, type CreateCustomerInput, type CustomerRow, type SkateProfileInput, type SkateProfileRow } from '@rinkwright/core';
-import { directory } from '@rinkwright/db';
+import { type CreateCustomerInput, type CustomerRow, type SkateProfileInput, type SkateProfileRow } from '@rinkwright/core';
+import { scoped } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
+import { insertNewCustomer } from '../../lib/customers';
 import * as repo from './repository';
 
 type Customer = NonNullable<Awaited<ReturnType<typeof repo.findCustomer>>>;
@@ -39,18 +40,7 @@ export async function requireCustomer(ctx: RinkContext, customerId: string): Pro
 
 /** A walk-up in two fields. If an account with this e-mail is verified, the record is linked to it at once. */
 export async function addCustomer(ctx: RinkContext, input: CreateCustomerInput): Promise<CustomerRow> {
-  let code = memberCode();
-  while (await repo.memberCodeTaken(ctx.tenantId, code)) code = memberCode();
-  const id = randomUUID();
-  const account = input.email ? await directory.findUserByEmail(input.email) : undefined;
-  await repo.insertCustomer(ctx.tenantId, {
-    id,
-    name: input.name,
-    email: input.email ?? null,
-    phone: input.phone ?? null,
-    memberCode: code,
-    userId: account?.emailVerified ? account.id : null,
-  });
+  const id = await insertNewCustomer(scoped(ctx.tenantId), { name: input.name, email: input.email ?? null, phone: input.phone ?? null });
   return toCustomerRow(await requireCustomer(ctx, id));
 }
 

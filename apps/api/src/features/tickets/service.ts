@@ -297,7 +297,7 @@ async function sendReadyNotice(ctx: RinkContext, customerId: string, number: num
         body: `Your skates on ticket ${number} are sharpened and ready to collect at the ${rinkName} counter.`,
         footer: 'Blades are sharp: carry them with guards on.',
       }),
-      { tenantId: ctx.tenantId, dedupeKey: `ready:${customerId}:${number}:${Date.now()}` },
+      { tenantId: ctx.tenantId },
     );
   } catch (error) {
     deps.logger.error({ err: error, ticket: number }, 'ready notice not sent');
@@ -338,8 +338,10 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
   assertOneReadingPerBlade(input.readings);
   let pairId = input.pairId;
   let newPair: Parameters<typeof repo.insertSharpening>[1]['newPair'];
+  let newPairIsStandard = false;
   if (input.newPair) {
     const [service] = await repo.findServices(ctx.tenantId, [input.newPair.serviceId]);
+    newPairIsStandard = service?.kind === 'standard';
     if (!service || service.active !== 1) throw AppError.field('newPair.serviceId', 'Choose one of the rink’s active services');
     pairId = randomUUID();
     newPair = {
@@ -379,7 +381,7 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
       correctionReason: null,
     },
     readings: readingRows(ctx, target.id, sharpeningId, input.bladeWidthNm, input.readings, () => 1, now),
-    withinNewPair: found.creditAccountId && newPair && (await repo.findServices(ctx.tenantId, [newPair.serviceId]))[0]?.kind === 'standard' ? (tx, id) => redeemForPair(tx, ctx, found.creditAccountId!, id).then(() => undefined) : undefined,
+    withinNewPair: found.creditAccountId && newPairIsStandard ? (tx, id) => redeemForPair(tx, ctx, found.creditAccountId!, id).then(() => undefined) : undefined,
   });
   // Another tablet got there first while this request was on its way.
   if (outcome === 'already_logged') throw new AppError('conflict', ALREADY_LOGGED);

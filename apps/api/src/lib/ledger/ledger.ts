@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { creditBalance, deferredRevenueMinor, lotToRedeem, lotValueMinor, membershipRollover, type EntryRow, type Lot, type LotRow } from '@rinkwright/core';
+import { creditBalance, deferredRevenueMinor, graceLapsed, lotToRedeem, lotValueMinor, membershipRollover, type EntryRow, type Lot, type LotRow } from '@rinkwright/core';
 import type { Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import * as repo from './repository';
@@ -29,8 +29,7 @@ const asLot = (l: repo.LotRecord): Lot => ({ id: l.id, credits: l.credits, remai
 
 /** A membership's credits stop being redeemable when its grace after a failed payment has run out. */
 function membershipBlocked(lot: repo.LotWithContext, now: Date): boolean {
-  if (lot.membershipState === 'blocked') return true;
-  return lot.membershipState === 'past_due' && lot.membershipGraceUntil !== null && lot.membershipGraceUntil <= now;
+  return lot.membershipState === 'blocked' || graceLapsed(lot.membershipState, lot.membershipGraceUntil, now);
 }
 
 const redeemable = (lot: repo.LotWithContext, now: Date) =>

@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, lte, or, sql } from 'drizzle-orm';
-import { creditAccount, creditEntry, creditLot, customer, isDuplicateKey, membership, product, user, type Scope } from '@rinkwright/db';
+import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, product, user, type Scope } from '@rinkwright/db';
 
 // The ledger's queries. Every function takes the caller's scope, usually a transaction's, so that a whole
 // operation (lock, read lots, write entries, move `remaining`) commits or rolls back as one.
@@ -10,7 +10,6 @@ export type EntryRecord = typeof creditEntry.$inferSelect;
 export type NewEntry = Omit<typeof creditEntry.$inferInsert, 'tenantId'>;
 export type NewLot = Omit<typeof creditLot.$inferInsert, 'tenantId'>;
 
-export const findAccount = (s: Scope, accountId: string) => s.findOne(creditAccount, eq(creditAccount.id, accountId));
 export const findAccountOfCustomer = (s: Scope, customerId: string) => s.findOne(creditAccount, eq(creditAccount.customerId, customerId));
 export const findAccountOfTeam = (s: Scope, teamId: string) => s.findOne(creditAccount, eq(creditAccount.teamId, teamId));
 export const findPoolOfLeague = (s: Scope, leagueId: string) =>
@@ -125,15 +124,5 @@ export function expiredLotsDue(s: Scope, now: Date, limit = 500) {
       ),
     ),
     limit,
-  });
-}
-
-/** The skater accounts of customers who want reminders, with their e-mail, for the low-balance and expiry mails. */
-export function remindableAccounts(s: Scope, accountIds: string[]) {
-  if (accountIds.length === 0) return Promise.resolve([]);
-  return s.findJoined(creditAccount, {
-    fields: { accountId: creditAccount.id, customerId: customer.id, name: customer.name, email: customer.email },
-    joins: [{ table: customer, on: eq(customer.id, creditAccount.customerId) }],
-    where: and(inArray(creditAccount.id, accountIds), eq(customer.notifyReminders, 1), isNotNull(customer.email)),
   });
 }

@@ -7,7 +7,7 @@ import { Button } from '../../../components/ui/button';
 import { Alert } from '../../../components/ui/feedback';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { applyServerErrors } from '../../../lib/forms';
-import { minorDigits, parsePrice, priceInput } from './money';
+import { minorDigits, moneyInput, parseMoney } from '../../../lib/format';
 
 export const KIND_LABEL: Record<ServiceRow['kind'], string> = {
   standard: 'Standard sharpening',
@@ -27,7 +27,7 @@ const schema = (currency: string) =>
   z
     .object({ name: z.string(), kind: z.enum(['standard', 'profiling', 'new_steel', 'add_on']), priceMinor: z.string(), active: z.boolean() })
     .transform((v, ctx): z.input<typeof serviceInput> => {
-      const price = parsePrice(v.priceMinor, currency);
+      const price = parseMoney(v.priceMinor, currency);
       if (price === null) {
         const digits = minorDigits(currency);
         ctx.addIssue({ code: 'custom', message: digits === 0 ? 'Enter a whole amount, e.g. 1200' : `Enter an amount such as 12.${'5'.padEnd(digits, '0')}`, path: ['priceMinor'] });
@@ -40,7 +40,7 @@ const schema = (currency: string) =>
 const valuesOf = (service: ServiceRow | null, currency: string): Values => ({
   name: service?.name ?? '',
   kind: service?.kind ?? 'standard',
-  priceMinor: service ? priceInput(service.priceMinor, currency) : '',
+  priceMinor: service ? moneyInput(service.priceMinor, currency) : '',
   active: service?.active ?? true,
 });
 

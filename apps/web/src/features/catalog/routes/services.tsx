@@ -10,7 +10,7 @@ import { useServices } from '../../../lib/queries/services';
 import { can, useRink } from '../../../lib/rink-context';
 import { useCreateService } from '../api/create-service';
 import { useUpdateService } from '../api/update-service';
-import { formatPrice } from '../components/money';
+import { formatMoney } from '../../../lib/format';
 import { KIND_LABEL, ServiceForm } from '../components/service-form';
 
 export function Component() {
@@ -29,7 +29,7 @@ export function Component() {
       {
         accessorKey: 'priceMinor',
         header: () => <span className="block text-right">Price</span>,
-        cell: ({ row }) => <span className="block text-right tabular-nums">{formatPrice(row.original.priceMinor, rink.currency)}</span>,
+        cell: ({ row }) => <span className="block text-right tabular-nums">{formatMoney(row.original.priceMinor, rink.currency)}</span>,
       },
       {
         accessorKey: 'active',
