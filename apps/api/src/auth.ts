@@ -40,7 +40,7 @@ export function createAuth(env: Env, db: Database, mailer: Mailer, logger: Logge
       maxPasswordLength: 128,
       revokeSessionsOnPasswordReset: true,
       sendResetPassword: async ({ user: person, url }) => {
-        await mailer.send(
+        await mailer.deliver(
           actionMail({
             to: person.email,
             subject: 'Reset your Rinkwright password',
@@ -50,6 +50,7 @@ export function createAuth(env: Env, db: Database, mailer: Mailer, logger: Logge
             url,
             footer: 'If it was not you, ignore this e-mail: your password stays as it is.',
           }),
+          { redactAfterSend: true },
         );
       },
     },
@@ -59,7 +60,7 @@ export function createAuth(env: Env, db: Database, mailer: Mailer, logger: Logge
       autoSignInAfterVerification: true,
       expiresIn: 24 * 3600,
       sendVerificationEmail: async ({ user: person, url }) => {
-        await mailer.send(
+        await mailer.deliver(
           actionMail({
             to: person.email,
             subject: 'Confirm your e-mail for Rinkwright',
@@ -69,6 +70,7 @@ export function createAuth(env: Env, db: Database, mailer: Mailer, logger: Logge
             url,
             footer: 'If you did not sign up, ignore this e-mail.',
           }),
+          { redactAfterSend: true },
         );
       },
       afterEmailVerification: async (person) => {
@@ -115,7 +117,7 @@ export function createAuth(env: Env, db: Database, mailer: Mailer, logger: Logge
         },
         sendInvitationEmail: async (data) => {
           const role = ROLE_LABELS[data.role as StaffRole] ?? data.role;
-          await mailer.send(
+          await mailer.deliver(
             actionMail({
               to: data.email,
               subject: `You are invited to ${data.organization.name} on Rinkwright`,
@@ -125,6 +127,7 @@ export function createAuth(env: Env, db: Database, mailer: Mailer, logger: Logge
               url: `${appUrl}/invitations/${data.id}`,
               footer: 'Sign in or create an account with this e-mail address to accept it.',
             }),
+            { redactAfterSend: true },
           );
         },
       }),

@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { and, asc, eq, isNull, lte } from 'drizzle-orm';
 import nodemailer from 'nodemailer';
 import { isDuplicateKey, outboxMail } from '@rinkwright/db';
-import { currentDb } from '@rinkwright/db/unscoped';
+import { currentDb, type Executor } from '@rinkwright/db/unscoped';
 import type { Logger } from 'pino';
 import type { Env } from '../env';
 
@@ -14,13 +14,13 @@ export interface Mail {
 }
 
 export interface Mailer {
-  /** Sends now; a failure is thrown to the caller (better-auth logs it). */
-  send(mail: Mail): Promise<void>;
   /**
    * Sends through the outbox: the mail is stored first, sent now if the server answers, and retried by the
    * worker with backoff if not. A dedupe key makes a repeat (a replayed webhook, a second sweep) send nothing.
+   * A mail with a live link (sign-in, password reset, invitation) asks for its body to be blanked once sent,
+   * so the outbox never keeps a usable token.
    */
-  deliver(mail: Mail, options?: { tenantId?: string | null; dedupeKey?: string | null }): Promise<void>;
+  deliver(mail: Mail, options?: { tenantId?: string | null; dedupeKey?: string | null; redactAfterSend?: boolean }): Promise<void>;
   /** Sends the mails that are due (the worker's step); returns how many went out. */
   drain(limit?: number): Promise<number>;
   close(): void;
@@ -43,11 +43,12 @@ export function createMailer(env: Env, logger: Logger): Mailer {
     logger.info({ to: mail.to, subject: mail.subject }, 'mail sent');
   };
 
-  async function attempt(row: typeof outboxMail.$inferSelect): Promise<boolean> {
-    const db = currentDb();
+  /** `db` is the drain's transaction when it holds the row's lock: writing through another connection would wait on it. */
+  async function attempt(row: typeof outboxMail.$inferSelect, db: Executor = currentDb()): Promise<boolean> {
     try {
       await send({ to: row.to, subject: row.subject, text: row.text, html: row.html });
-      await db.update(outboxMail).set({ sentAt: new Date(), attempts: row.attempts + 1, lastError: null }).where(eq(outboxMail.id, row.id));
+      const redacted = row.redactAfterSend ? { text: '', html: '' } : {};
+      await db.update(outboxMail).set({ sentAt: new Date(), attempts: row.attempts + 1, lastError: null, ...redacted }).where(eq(outboxMail.id, row.id));
       return true;
     } catch (error) {
       const attempts = row.attempts + 1;
@@ -59,9 +60,8 @@ export function createMailer(env: Env, logger: Logger): Mailer {
   }
 
   return {
-    send,
     async deliver(mail, options = {}) {
-      const row = { id: randomUUID(), tenantId: options.tenantId ?? null, dedupeKey: options.dedupeKey ?? null, ...mail, attempts: 0, nextAttemptAt: new Date(), sentAt: null, lastError: null, createdAt: new Date() };
+      const row = { id: randomUUID(), tenantId: options.tenantId ?? null, dedupeKey: options.dedupeKey ?? null, ...mail, redactAfterSend: options.redactAfterSend ? 1 : 0, attempts: 0, nextAttemptAt: new Date(), sentAt: null, lastError: null, createdAt: new Date() };
       try {
         await currentDb().insert(outboxMail).values(row);
       } catch (error) {
@@ -75,7 +75,7 @@ export function createMailer(env: Env, logger: Logger): Mailer {
       return currentDb().transaction(async (tx) => {
         const due = await tx.select().from(outboxMail).where(and(isNull(outboxMail.sentAt), lte(outboxMail.nextAttemptAt, new Date()))).orderBy(asc(outboxMail.nextAttemptAt)).limit(limit).for('update', { skipLocked: true });
         let sent = 0;
-        for (const row of due) if (await attempt(row)) sent++;
+        for (const row of due) if (await attempt(row, tx)) sent++;
         return sent;
       });
     },

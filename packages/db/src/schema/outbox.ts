@@ -16,6 +16,8 @@ export const outboxMail = mysqlTable(
     subject: varchar('subject', { length: 200 }).notNull(),
     text: text('body_text').notNull(),
     html: text('body_html').notNull(),
+    /** 1 for a mail carrying a sign-in, reset or invitation link: its body is blanked once it is sent. */
+    redactAfterSend: int('redact_after_send').notNull().default(0),
     attempts: int('attempts').notNull().default(0),
     nextAttemptAt: at('next_attempt_at').notNull(),
     sentAt: at('sent_at'),

@@ -1,0 +1,1 @@
+ALTER TABLE `outbox_mail` ADD `redact_after_send` int DEFAULT 0 NOT NULL;
