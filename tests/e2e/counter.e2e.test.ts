@@ -164,6 +164,32 @@ describe('the counter', () => {
     await session.context.close();
   });
 
+  it('gives a pair added before the services arrived the standard service', async () => {
+    const session = await openSession(browser(), 'slow-services');
+    const { page } = session;
+    await signIn(session, 'tech@ice-harbor.test');
+    await page.waitForURL('**/rinks/ice-harbor');
+    // The services answer is held back until the pair is added, as on a slow rink network.
+    let release: () => void = () => undefined;
+    const held = new Promise<void>((resolve) => (release = resolve));
+    await page.route('**/api/rinks/ice-harbor/services', async (route) => {
+      await held;
+      await route.continue();
+    });
+    await page.goto('/rinks/ice-harbor/counter');
+    await page.getByLabel('Find a skater').fill('Castellane');
+    await page.getByRole('list', { name: 'Matching skaters' }).getByRole('button', { name: /Castellane/ }).first().click();
+    await page.getByRole('button', { name: '+ Another pair' }).click();
+    release();
+    const service = page.getByLabel('Service');
+    await expect.poll(() => service.evaluate((el: HTMLSelectElement) => el.selectedOptions[0]?.textContent ?? '')).toMatch(/^Standard sharpening/);
+    await page.getByRole('button', { name: /^Take in/ }).click();
+    await page.waitForURL(/\/tickets\//);
+    await page.getByRole('heading', { name: /^Ticket \d+$/ }).waitFor();
+    expectNoProblems(session);
+    await session.context.close();
+  });
+
   it("keeps a skater's profiles and shows their member code as a QR code", async () => {
     const session = await openSession(browser(), 'customer');
     const { page } = session;

@@ -26,7 +26,9 @@ export function IntakeForm({ rink, customer, onDone }: { rink: RinkSummary; cust
   const detail = useCustomer(rink.slug, customer.id);
   const active = (services.data?.services ?? []).filter((s) => s.active);
   const standard = active.find((s) => s.kind === 'standard') ?? active[0];
-  const [rows, setRows] = useState<Row[]>([]);
+  const [picked, setRows] = useState<Row[]>([]);
+  // A pair added before the services arrived has no service yet: it takes the standard one once they do.
+  const rows = picked.map((r) => (r.serviceId || !standard ? r : { ...r, serviceId: standard.id }));
   const [payment, setPayment] = useState<Payment>('counter');
   const [teamId, setTeamId] = useState('');
   const client = useQueryClient();
@@ -44,7 +46,7 @@ export function IntakeForm({ rink, customer, onDone }: { rink: RinkSummary; cust
     label: `Pair ${rows.length + 1}`,
     bladeWidthNm: null,
     hollowNm: null,
-    serviceId: standard?.id ?? '',
+    serviceId: '',
     notes: null,
     ...over,
   });
