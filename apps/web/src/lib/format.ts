@@ -6,6 +6,9 @@ export function formatDateTime(iso: string, timeZone?: string): string {
   return new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short', timeZone }).format(new Date(iso));
 }
 
+/** A count (credits, players) with the reader's digit grouping, so 12345 reads as 12,345. */
+export const formatCount = (n: number) => new Intl.NumberFormat(undefined, { maximumFractionDigits: 0 }).format(n);
+
 /** How many decimals a currency's minor unit has (ISO 4217: CAD 2, JPY 0), as the platform's Intl knows it. */
 export const minorDigits = (currency: string) => new Intl.NumberFormat('en', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
 

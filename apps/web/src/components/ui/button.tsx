@@ -18,7 +18,7 @@ export function buttonClass(tone: Tone = 'primary', extra = ''): string {
 
 export function Button({ tone = 'primary', busy, children, className = '', ...rest }: ButtonHTMLAttributes<HTMLButtonElement> & { tone?: Tone; busy?: boolean }) {
   return (
-    <button type="button" className={buttonClass(tone, className)} disabled={busy || rest.disabled} aria-busy={busy || undefined} {...rest}>
+    <button type="button" className={buttonClass(tone, className)} aria-busy={busy || undefined} {...rest} disabled={busy || rest.disabled}>
       {children}
     </button>
   );

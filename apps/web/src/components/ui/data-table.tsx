@@ -25,7 +25,8 @@ export function DataTable<T>({ data, columns, caption, empty }: { data: T[]; col
                   <th
                     key={header.id}
                     scope="col"
-                    className="px-3 py-2 font-semibold text-ink-soft"
+                    // A right-aligned header label (a number column) aligns its sort button too.
+                    className="px-3 py-2 font-semibold text-ink-soft has-[.text-right]:text-right"
                     aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
                   >
                     {header.isPlaceholder ? null : header.column.getCanSort() ? (

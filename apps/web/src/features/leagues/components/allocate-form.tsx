@@ -4,6 +4,7 @@ import { Button } from '../../../components/ui/button';
 import { Alert } from '../../../components/ui/feedback';
 import { SelectField, TextField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
+import { formatCount } from '../../../lib/format';
 import { useAllocate } from '../api/allocate';
 
 /** Gives pool credits to one team (shared by its players at the counter) or to one player's own account. */
@@ -47,7 +48,7 @@ export function AllocateForm({ slug, leagueId, teams, pool }: { slug: string; le
   const targetError = [...(errors.teamId ?? []), ...(errors.playerId ?? [])].join(' ');
   return (
     <form className="space-y-3" aria-label="Allocate credits" noValidate onSubmit={(e) => (e.preventDefault(), void submit())}>
-      <p className="text-sm text-ink-soft tabular-nums">{pool} credit{pool === 1 ? '' : 's'} in the pool to give out.</p>
+      <p className="text-sm text-ink-soft tabular-nums">{formatCount(pool)} credit{pool === 1 ? '' : 's'} in the pool to give out. Team credits are shared by its players at the counter; a player's own credits are theirs alone.</p>
       {note ? <Alert tone={note.tone}>{note.text}</Alert> : null}
       <SelectField
         label="To"
@@ -63,7 +64,8 @@ export function AllocateForm({ slug, leagueId, teams, pool }: { slug: string; le
         ]}
       />
       <TextField label="Credits" inputMode="numeric" className="tabular-nums" value={credits} onChange={(e) => setCredits(e.target.value)} error={errors.credits?.join(' ')} />
-      <Button type="submit" busy={allocate.isPending} disabled={teams.length === 0}>
+      {/* An explicit disabled wins over busy in Button: the pending state is folded in, or a second press would move credits twice. */}
+      <Button type="submit" busy={allocate.isPending} disabled={allocate.isPending || teams.length === 0}>
         {allocate.isPending ? 'Allocating…' : 'Allocate credits'}
       </Button>
     </form>

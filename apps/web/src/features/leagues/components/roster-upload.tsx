@@ -40,8 +40,9 @@ export function RosterUpload({ slug, leagueId }: { slug: string; leagueId: strin
   return (
     <form className="space-y-3" aria-label="Upload a roster" onSubmit={(e) => (e.preventDefault(), void send())}>
       <p className="text-sm">
-        A CSV file whose first line is <code className="rounded bg-glacier px-1 font-mono">team,name,email,phone</code> (phone may be empty), then one line per player.
-        Importing the same file again changes nothing.
+        A CSV file whose first line is <code className="rounded bg-glacier px-1 font-mono">team,name,email,phone</code>, then one line per player with an e-mail, a phone
+        or both. New team names make new teams; a player already on the roster moves to the team the file names. Every line is checked first: if one is wrong, nothing is
+        imported. Importing the same file again changes nothing.
       </p>
       <div>
         <label htmlFor={id} className="block text-sm font-semibold">
@@ -63,7 +64,8 @@ export function RosterUpload({ slug, leagueId }: { slug: string; leagueId: strin
       {problem ? (
         <div role="alert" className="rounded-lg border-l-4 border-brick bg-red-50 px-4 py-3 text-sm text-brick">
           <p className="font-bold">{problem.message}</p>
-          <p>Nothing was imported.</p>
+          {/nothing was imported/i.test(problem.message) ? null : <p>Nothing was imported.</p>}
+          {problem.lines.some(([where]) => where.startsWith('Line')) ? <p>Fix these lines in the file and import it again. The header is line 1.</p> : null}
           {problem.lines.length > 0 ? (
             <ul className="mt-2 list-disc space-y-1 pl-5">
               {problem.lines.map(([where, message]) => (
@@ -75,7 +77,7 @@ export function RosterUpload({ slug, leagueId }: { slug: string; leagueId: strin
           ) : null}
         </div>
       ) : null}
-      <Button type="submit" disabled={!file} busy={upload.isPending}>
+      <Button type="submit" disabled={!file || upload.isPending} busy={upload.isPending}>
         {upload.isPending ? 'Importing…' : 'Import roster'}
       </Button>
     </form>

@@ -7,7 +7,7 @@ import { SelectField } from '../../../components/ui/field';
 import { Card, PageHeader, Stat } from '../../../components/ui/layout';
 import { NotFound } from '../../../components/ui/not-found';
 import { ApiError } from '../../../lib/api-client';
-import { formatDate, formatDateTime, formatMoney } from '../../../lib/format';
+import { formatCount, formatDate, formatDateTime, formatMoney } from '../../../lib/format';
 import { can, useRink } from '../../../lib/rink-context';
 import { useBuyPack } from '../api/buy-pack';
 import { useLeague } from '../api/get-league';
@@ -17,8 +17,8 @@ import { RosterUpload } from '../components/roster-upload';
 const th = 'px-3 py-2 font-semibold text-ink-soft';
 const td = 'px-3 py-2 align-top';
 
-function PoolLots({ rink, pool }: { rink: RinkSummary; pool: LeagueDetail['pool'] }) {
-  if (pool.lots.length === 0) return <p className="text-ink-soft">No packs bought yet.</p>;
+function PoolLots({ rink, pool, manage }: { rink: RinkSummary; pool: LeagueDetail['pool']; manage: boolean }) {
+  if (pool.lots.length === 0) return <p className="text-ink-soft">{manage ? 'No packs bought yet: buy a league pack below to fill the pool.' : 'No packs bought yet.'}</p>;
   return (
     <div className="overflow-x-auto">
       <table className="w-full border-collapse text-left text-sm">
@@ -36,7 +36,7 @@ function PoolLots({ rink, pool }: { rink: RinkSummary; pool: LeagueDetail['pool'
             <tr key={l.id} className="border-b border-rule/60 last:border-0">
               <td className={td}>{l.productName ?? '—'}</td>
               <td className={`${td} text-right tabular-nums`}>
-                {l.remaining} / {l.credits}
+                {formatCount(l.remaining)} / {formatCount(l.credits)}
               </td>
               <td className={td}>{l.expiresAt ? formatDate(l.expiresAt, rink.timeZone) : 'No expiry'}</td>
               <td className={`${td} text-right tabular-nums`}>{formatMoney(l.remainingValueMinor, pool.currency)}</td>
@@ -74,7 +74,7 @@ function BuyPack({ slug, league }: { slug: string; league: LeagueDetail }) {
           ...league.packs.map((p) => ({ value: p.id, label: `${p.name} · ${p.credits} credits · ${formatMoney(p.price.amountMinor, p.price.currency)}` })),
         ]}
       />
-      <Button type="submit" disabled={!productId} busy={buy.isPending}>
+      <Button type="submit" disabled={!productId || buy.isPending} busy={buy.isPending}>
         Buy a league pack
       </Button>
     </form>
@@ -99,15 +99,15 @@ function Teams({ league }: { league: LeagueDetail }) {
           {league.teams.map((t) => (
             <tr key={t.id} className="border-b border-rule/60 last:border-0">
               <td className={`${td} font-semibold`}>{t.name}</td>
-              <td className={`${td} text-right tabular-nums`}>{t.allocated}</td>
-              <td className={`${td} text-right tabular-nums`}>{t.used}</td>
-              <td className={`${td} text-right font-semibold tabular-nums`}>{t.remaining}</td>
+              <td className={`${td} text-right tabular-nums`}>{formatCount(t.allocated)}</td>
+              <td className={`${td} text-right tabular-nums`}>{formatCount(t.used)}</td>
+              <td className={`${td} text-right font-semibold tabular-nums`}>{formatCount(t.remaining)}</td>
               <td className={td}>
                 <ul className="space-y-1">
                   {t.players.map((p) => (
                     <li key={p.id} className="tabular-nums">
                       {p.name}
-                      {p.email ? <span className="text-ink-soft"> · {p.email}</span> : null} · {p.credits}
+                      {p.email ? <span className="text-ink-soft"> · {p.email}</span> : null} · {formatCount(p.credits)} credit{p.credits === 1 ? '' : 's'}
                     </li>
                   ))}
                   {t.players.length === 0 ? <li className="text-ink-soft">No players yet.</li> : null}
@@ -138,6 +138,8 @@ export function Component() {
   if (detail.isPending) return <Loading />;
   if (detail.isError) return detail.error instanceof ApiError && detail.error.status === 404 ? <NotFound message="No such league at this rink." /> : <Alert>{detail.error.message}</Alert>;
   const d = detail.data;
+  // Counted from the teams on this page, so the figure always matches the table below it.
+  const players = d.teams.reduce((n, t) => n + t.players.length, 0);
   return (
     <div className="space-y-6">
       <PageHeader
@@ -152,11 +154,11 @@ export function Component() {
       {params.has('session') ? <Alert tone="info">Back from checkout. The pack's credits appear in the pool as soon as the payment service confirms the payment.</Alert> : null}
       <Card title="Pool">
         <dl className="mb-4 grid gap-3 sm:grid-cols-3">
-          <Stat label="Credits in the pool" value={d.pool.credits} />
+          <Stat label="Credits in the pool" value={formatCount(d.pool.credits)} />
           <Stat label="Worth" value={formatMoney(d.pool.valueMinor, d.pool.currency)} />
-          <Stat label="Teams · players" value={`${d.league.teams} · ${d.league.players}`} />
+          <Stat label="Teams · players" value={`${formatCount(d.teams.length)} · ${formatCount(players)}`} />
         </dl>
-        <PoolLots rink={rink} pool={d.pool} />
+        <PoolLots rink={rink} pool={d.pool} manage={manage} />
       </Card>
       {manage ? (
         <div className="grid items-start gap-6 lg:grid-cols-2">

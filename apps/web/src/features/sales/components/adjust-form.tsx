@@ -6,6 +6,7 @@ import { z } from 'zod';
 import { Button } from '../../../components/ui/button';
 import { Alert } from '../../../components/ui/feedback';
 import { TextField } from '../../../components/ui/field';
+import { formatCount } from '../../../lib/format';
 import { applyServerErrors } from '../../../lib/forms';
 import { useAdjustCredits } from '../api/adjust-credits';
 import { signed } from './words';
@@ -30,7 +31,7 @@ export function AdjustForm({ slug, customerId, customerName }: { slug: string; c
       setNote(
         outcome.queued
           ? { tone: 'info', text: 'Saved on this tablet: the adjustment goes out as soon as the connection is back.' }
-          : { tone: 'success', text: `Credits adjusted by ${signed(input.credits)}. Balance now ${outcome.result.balance}.` },
+          : { tone: 'success', text: `Credits adjusted by ${signed(input.credits)}. Balance after the adjustment: ${formatCount(outcome.result.balance)}.` },
       );
     } catch (error) {
       setNote({ tone: 'error', text: applyServerErrors(error, setError, ['credits', 'reason']) });

@@ -5,7 +5,7 @@ import { Button } from '../../../components/ui/button';
 import { DataTable } from '../../../components/ui/data-table';
 import { Alert, Loading } from '../../../components/ui/feedback';
 import { ApiError } from '../../../lib/api-client';
-import { formatDate, formatMoney } from '../../../lib/format';
+import { formatCount, formatDate, formatMoney } from '../../../lib/format';
 import { can } from '../../../lib/rink-context';
 import { useBalance } from '../api/get-balance';
 import { useRedeemCredit } from '../api/redeem-credit';
@@ -13,7 +13,8 @@ import { LOT_ORIGIN_WORDS } from './words';
 
 function whyNot(lot: LotRow): string {
   if (lot.redeemable) return 'Yes';
-  if (lot.remaining === 0) return 'No: used up';
+  // A lot at zero may have been redeemed, refunded or adjusted away: the ledger below says which.
+  if (lot.remaining === 0) return 'No: none left';
   if (lot.expiresAt && new Date(lot.expiresAt) <= new Date()) return 'No: expired';
   return 'No: membership payment failed and its grace ran out';
 }
@@ -22,7 +23,8 @@ function whyNot(lot: LotRow): string {
 export function BalancePanel({ rink, customerId, customerName }: { rink: RinkSummary; customerId: string; customerName: string }) {
   const balance = useBalance(rink.slug, customerId);
   const redeem = useRedeemCredit(rink.slug, customerId);
-  const [note, setNote] = useState<{ tone: 'error' | 'success' | 'info'; text: string } | null>(null);
+  // A note that states a balance is shown only while that balance stands; a later sale or refund makes it stale.
+  const [note, setNote] = useState<{ tone: 'error' | 'success' | 'info'; text: string; balance?: number } | null>(null);
   const currency = balance.data?.currency ?? rink.currency;
 
   const columns = useMemo<ColumnDef<LotRow, unknown>[]>(
@@ -57,7 +59,7 @@ export function BalancePanel({ rink, customerId, customerName }: { rink: RinkSum
       setNote(
         outcome.queued
           ? { tone: 'info', text: 'Saved on this tablet: the credit is redeemed as soon as the connection is back.' }
-          : { tone: 'success', text: `One credit redeemed. ${outcome.result.balance} left.` },
+          : { tone: 'success', text: `One credit redeemed. ${formatCount(outcome.result.balance)} left.`, balance: outcome.result.balance },
       );
     } catch (error) {
       setNote({ tone: 'error', text: error instanceof ApiError && error.code === 'insufficient_credits' ? 'No credits left' : error instanceof Error ? error.message : 'Not redeemed' });
@@ -73,7 +75,7 @@ export function BalancePanel({ rink, customerId, customerName }: { rink: RinkSum
         <dl>
           <dt className="text-sm font-medium text-ink-soft">Credits to use</dt>
           <dd className="text-5xl font-extrabold tabular-nums" data-testid="credit-balance">
-            {b.credits}
+            {formatCount(b.credits)}
           </dd>
           <dd className="text-sm text-ink-soft tabular-nums">worth {formatMoney(b.valueMinor, b.currency)}</dd>
         </dl>
@@ -83,7 +85,7 @@ export function BalancePanel({ rink, customerId, customerName }: { rink: RinkSum
           </Button>
         ) : null}
       </div>
-      {note ? <Alert tone={note.tone}>{note.text}</Alert> : null}
+      {note && (note.balance === undefined || note.balance === b.credits) ? <Alert tone={note.tone}>{note.text}</Alert> : null}
       <DataTable data={b.lots} columns={columns} caption="Credit lots, the one that expires first is used first" empty="No credit lots yet." />
     </div>
   );

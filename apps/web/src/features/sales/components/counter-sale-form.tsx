@@ -7,7 +7,7 @@ import { Button } from '../../../components/ui/button';
 import { Alert, Loading } from '../../../components/ui/feedback';
 import { SelectField } from '../../../components/ui/field';
 import { ApiError } from '../../../lib/api-client';
-import { formatMoney } from '../../../lib/format';
+import { formatCount, formatMoney } from '../../../lib/format';
 import { applyServerErrors } from '../../../lib/forms';
 import { can } from '../../../lib/rink-context';
 import { useBilling } from '../api/get-billing';
@@ -29,7 +29,7 @@ export function CounterSaleForm({ rink, customerId }: { rink: RinkSummary; custo
   const sell = useSellAtCounter(rink.slug, customerId);
   const press = usePressKey();
   const [note, setNote] = useState<{ tone: 'error' | 'success'; text: string } | null>(null);
-  const { register, handleSubmit, formState, setError } = useForm<CounterSaleInput>({
+  const { register, handleSubmit, formState, setError, reset } = useForm<CounterSaleInput>({
     resolver: zodResolver(schema),
     defaultValues: { productId: '', paymentMethodId: 'cash' },
   });
@@ -47,7 +47,9 @@ export function CounterSaleForm({ rink, customerId }: { rink: RinkSummary; custo
     try {
       const sale = await sell.mutateAsync({ input, key });
       press.done();
-      setNote({ tone: 'success', text: `${sale.payment.productName} sold for ${formatMoney(sale.payment.amountMinor, sale.payment.currency)}. Balance now ${sale.balance}.` });
+      // The picker goes back to empty, so a second press of Sell cannot sell the same card again by accident.
+      reset({ productId: '', paymentMethodId: input.paymentMethodId });
+      setNote({ tone: 'success', text: `${sale.payment.productName} sold for ${formatMoney(sale.payment.amountMinor, sale.payment.currency)}. Balance after the sale: ${formatCount(sale.balance)}.` });
     } catch (error) {
       // A lost answer may still have charged: keep the key so pressing again repeats this same sale, not a second one.
       const lost = error instanceof ApiError && (error.code === 'network' || error.status >= 500);
@@ -68,7 +70,8 @@ export function CounterSaleForm({ rink, customerId }: { rink: RinkSummary; custo
         label="Product"
         options={[
           { value: '', label: 'Choose a product' },
-          ...sellable.map((p) => ({ value: p.id, label: `${p.name} · ${PRODUCT_KIND_LABELS[p.kind]} · ${p.credits} credit${p.credits === 1 ? '' : 's'} · ${validityWords(p)} · ${formatMoney(p.price.amountMinor, p.price.currency)}` })),
+          // The price comes right after the name: a narrow picker cuts the end of the line, never the price.
+          ...sellable.map((p) => ({ value: p.id, label: `${p.name} · ${formatMoney(p.price.amountMinor, p.price.currency)} · ${p.credits} credit${p.credits === 1 ? '' : 's'} · ${validityWords(p)} · ${PRODUCT_KIND_LABELS[p.kind]}` })),
         ]}
         error={e.productId?.message}
         {...register('productId', fieldChanged)}

@@ -168,7 +168,8 @@ export function ProductForm({
         <TextField label="Months to use (optional)" inputMode="numeric" className="tabular-nums" hint="Leave empty for credits that never expire." error={e.monthsValid?.message} {...register('monthsValid')} />
       )}
       <Checkbox label="Listed on the rink's page" hint="Untick to sell it only at the counter (or, for league packs, to leagues)." {...register('listed')} />
-      <Button type="submit" busy={formState.isSubmitting} disabled={product !== null && !formState.isDirty}>
+      {/* An explicit disabled wins over busy in Button: the submitting state is folded in, or a second press adds the product twice. */}
+      <Button type="submit" busy={formState.isSubmitting} disabled={formState.isSubmitting || (product !== null && !formState.isDirty)}>
         {formState.isSubmitting ? 'Saving…' : product ? 'Save product' : 'Add product'}
       </Button>
     </form>

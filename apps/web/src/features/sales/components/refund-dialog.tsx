@@ -59,6 +59,8 @@ export function RefundDialog({ slug, customerId, payment, onClose }: { slug: str
         <Loading label="Working out the refund…" />
       ) : quote.isError ? (
         <Alert>{quote.error.message}</Alert>
+      ) : quote.data.credits === 0 ? (
+        <p className="mb-4 rounded-lg bg-glacier px-4 py-3 text-sm">Nothing is left to refund on this payment: its credits have been used or refunded already.</p>
       ) : (
         <div className="mb-4 space-y-3">
           <p className="text-sm">{quote.data.rule}</p>
@@ -72,20 +74,32 @@ export function RefundDialog({ slug, customerId, payment, onClose }: { slug: str
               <dd className="text-2xl font-bold tabular-nums">{formatMoney(quote.data.refundMinor, quote.data.currency)}</dd>
             </div>
           </dl>
+          <p className="rounded-lg border-l-4 border-brick bg-red-50 px-4 py-3 text-sm text-ink">
+            {payment.channel === 'online'
+              ? 'The money goes back to the card the skater paid with. '
+              : 'A card payment goes back to its card; for a cash sale, hand the money back from the till: Rinkwright only records it. '}
+            A refund cannot be undone.
+          </p>
         </div>
       )}
-      <form onSubmit={onSubmit} noValidate className="space-y-3" aria-label={`Refund ${payment.productName}`}>
-        <Alert>{problem}</Alert>
-        <TextField label="Reason" autoComplete="off" autoFocus error={formState.errors.reason?.message} {...register('reason')} />
-        <div className="flex flex-wrap gap-2">
-          <Button type="submit" tone="danger" busy={formState.isSubmitting} disabled={!quote.isSuccess}>
-            {formState.isSubmitting ? 'Refunding…' : 'Refund'}
-          </Button>
-          <Button tone="secondary" onClick={() => onClose(null)}>
-            Keep the payment
-          </Button>
-        </div>
-      </form>
+      {quote.isSuccess && quote.data.credits === 0 ? (
+        <Button tone="secondary" onClick={() => onClose(null)}>
+          Close
+        </Button>
+      ) : (
+        <form onSubmit={onSubmit} noValidate className="space-y-3" aria-label={`Refund ${payment.productName}`}>
+          <Alert>{problem}</Alert>
+          <TextField label="Reason" autoComplete="off" autoFocus hint="Kept in the ledger beside the refund." error={formState.errors.reason?.message} {...register('reason')} />
+          <div className="flex flex-wrap gap-2">
+            <Button type="submit" tone="danger" busy={formState.isSubmitting} disabled={formState.isSubmitting || !quote.isSuccess}>
+              {formState.isSubmitting ? 'Refunding…' : quote.isSuccess ? `Refund ${formatMoney(quote.data.refundMinor, quote.data.currency)}` : 'Refund'}
+            </Button>
+            <Button tone="secondary" onClick={() => onClose(null)}>
+              Keep the payment
+            </Button>
+          </div>
+        </form>
+      )}
     </dialog>
   );
 }

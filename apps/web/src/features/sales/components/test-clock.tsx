@@ -33,7 +33,7 @@ export function TestClock({ slug }: { slug: string }) {
     <form onSubmit={onSubmit} noValidate className="space-y-3" aria-label="Test clock">
       <p className="text-sm text-ink-soft">This exists only with the test payment service: real payments follow the real calendar.</p>
       {note ? <Alert tone={note.tone}>{note.text}</Alert> : null}
-      <TextField label="Advance by (days)" type="number" inputMode="numeric" min={1} max={400} className="tabular-nums" error={formState.errors.days?.message} {...register('days', { valueAsNumber: true })} />
+      <TextField label="Advance by (days)" type="number" inputMode="numeric" min={1} max={400} className="max-w-xs tabular-nums" error={formState.errors.days?.message} {...register('days', { valueAsNumber: true })} />
       <Button type="submit" tone="secondary" busy={formState.isSubmitting}>
         {formState.isSubmitting ? 'Moving the clock…' : 'Advance the test clock'}
       </Button>

@@ -105,7 +105,8 @@ export function Component() {
     <div className="space-y-6">
       <PageHeader title="Products" subtitle={`Punch cards, memberships, league packs and single sharpenings, priced in ${rink.currency}.`} />
       {note ? <Alert tone={note.tone}>{note.text}</Alert> : null}
-      <div className={manage ? 'grid items-start gap-6 lg:grid-cols-[1fr_26rem]' : ''}>
+      {/* Side by side only where the table keeps room for its nine columns; on a tablet the form sits below it. */}
+      <div className={manage ? 'grid items-start gap-6 xl:grid-cols-[minmax(0,1fr)_26rem]' : ''}>
         <Card title="What the rink sells">
           {products.isPending ? (
             <Loading />
