@@ -44,6 +44,8 @@ describe('roster import', () => {
   it('applies a good file once; the same file again changes nothing', async () => {
     const first = await leagueManager.post(`/api/rinks/${world.slug}/leagues/${leagueId}/roster`).send({ csv: good });
     expect(first.body).toMatchObject({ applied: true, rows: 3, teamsCreated: 2, playersAdded: 3, customersCreated: 3 });
+    const listed = await leagueManager.get(`/api/rinks/${world.slug}/leagues`);
+    expect(listed.body.leagues.find((l: { id: string }) => l.id === leagueId)).toMatchObject({ teams: 2, players: 3 });
     const after = await counts();
     const again = await leagueManager.post(`/api/rinks/${world.slug}/leagues/${leagueId}/roster`).send({ csv: good });
     expect(again.body).toMatchObject({ applied: false });

@@ -33,8 +33,6 @@ export async function listLeagues(ctx: RinkContext, onlyLeagueId?: string) {
       season: league.season,
       managerUserId: league.managerUserId,
       manager: sql<string | null>`(select ${user.name} from ${user} where ${user.id} = ${league.managerUserId})`,
-      teams: sql<number>`(select count(*) from ${leagueTeam} where ${leagueTeam.tenantId} = ${league.tenantId} and ${leagueTeam.leagueId} = ${league.id})`.mapWith(Number),
-      players: sql<number>`(select count(*) from ${leaguePlayer} where ${leaguePlayer.tenantId} = ${league.tenantId} and ${leaguePlayer.leagueId} = ${league.id})`.mapWith(Number),
     },
     joins: [],
     where: and(ctx.role === 'league_manager' ? eq(league.managerUserId, ctx.userId) : undefined, onlyLeagueId ? eq(league.id, onlyLeagueId) : undefined),
@@ -44,7 +42,10 @@ export async function listLeagues(ctx: RinkContext, onlyLeagueId?: string) {
   for (const r of rows) {
     const pool = await ledger.findPoolAccount(s, r.id);
     const b = await ledger.balanceOf(s, pool ? [pool.id] : []);
-    leagues.push({ id: r.id, name: r.name, season: r.season, manager: r.manager, poolCredits: b.credits, teams: r.teams, players: r.players });
+    // Counted one league at a time: a correlated subquery in the select above lost its outer table's name in
+    // Drizzle's single-table select and matched the inner table, so it counted nothing.
+    const [teams, players] = await Promise.all([s.count(leagueTeam, eq(leagueTeam.leagueId, r.id)), s.count(leaguePlayer, eq(leaguePlayer.leagueId, r.id))]);
+    leagues.push({ id: r.id, name: r.name, season: r.season, manager: r.manager, poolCredits: b.credits, teams, players });
   }
   return { leagues };
 }

@@ -293,9 +293,9 @@ async function refundPlan(s: Scope, paymentId: string, now: Date) {
   const refundMinor = Math.min(parts.reduce((n, p) => n + p.refundMinor, 0), found.amountMinor - found.refundedMinor);
   const lot = lots[0];
   const used = lot ? lot.credits - lot.remaining : 0;
-  const rule = lot
-    ? `Refunds the unused share of the price: ${lot.remaining} of ${lot.credits} credits are unused, so ${money(lotValueMinor({ credits: lot.credits, remaining: lot.remaining, priceMinor: lot.priceMinor }), found.currency)} of ${money(found.amountMinor, found.currency)} comes back (${used} used credit${used === 1 ? '' : 's'} keep ${money(found.amountMinor - lotValueMinor({ credits: lot.credits, remaining: lot.remaining, priceMinor: lot.priceMinor }), found.currency)}, each credit valued at the price ÷ ${lot.credits}, rounded to the cent). The ${lot.remaining} credits are removed.`
-    : 'This payment granted no credits that are left to refund.';
+  const rule = lot && credits > 0
+    ? `Refunds the unused share of the price: ${lot.remaining} of ${lot.credits} credits are unused, so ${money(lotValueMinor({ credits: lot.credits, remaining: lot.remaining, priceMinor: lot.priceMinor }), found.currency)} of ${money(found.amountMinor, found.currency)} comes back (${used} used credit${used === 1 ? ' keeps' : 's keep'} ${money(found.amountMinor - lotValueMinor({ credits: lot.credits, remaining: lot.remaining, priceMinor: lot.priceMinor }), found.currency)}, each credit valued at the price ÷ ${lot.credits}, rounded to the cent). The ${lot.remaining} credits are removed.`
+    : 'No unused credits are left on this payment, so nothing more can be refunded.';
   return { found, lots, credits, refundMinor, rule };
 }
 
