@@ -3,6 +3,7 @@ export const portalKeys = {
   all: ['portal'] as const,
   home: () => ['portal', 'home'] as const,
   rink: (slug: string) => ['portal', slug, 'detail'] as const,
+  selling: (slug: string) => ['portal', slug, 'selling'] as const,
   checkout: (slug: string, sessionId: string) => ['portal', slug, 'checkout', sessionId] as const,
 };
 

@@ -1,14 +1,16 @@
 import { useEffect, useState } from 'react';
-import type { PublicProduct } from '@rinkwright/core';
+import type { MembershipRow, PublicProduct } from '@rinkwright/core';
 import { Button } from '../../../components/ui/button';
 import { Alert } from '../../../components/ui/feedback';
+import { useSelling } from '../api/get-selling';
 import { useStartPortalCheckout } from '../api/start-checkout';
 import { formatMoney } from '../../../lib/format';
 import { productTerms } from './words';
 
 /** Punch cards and memberships the skater can buy for themselves; payment happens on the payment service's page. */
-export function BuyList({ slug, products }: { slug: string; products: PublicProduct[] }) {
+export function BuyList({ slug, products, memberships }: { slug: string; products: PublicProduct[]; memberships: MembershipRow[] }) {
   const start = useStartPortalCheckout(slug);
+  const selling = useSelling(slug);
   const [problem, setProblem] = useState('');
   const [leaving, setLeaving] = useState<string | null>(null);
   useEffect(() => {
@@ -30,10 +32,16 @@ export function BuyList({ slug, products }: { slug: string; products: PublicProd
     }
   }
 
+  // A second subscription to the same membership would charge twice a month; the row names its product only by name.
+  const member = (p: PublicProduct) => p.kind === 'membership' && memberships.some((m) => m.productName === p.name && m.state !== 'canceled');
+
   if (products.length === 0) return <p className="text-ink-soft">This rink sells nothing online at the moment.</p>;
+  // Until the rink can take payments, a Buy button would only lead to an error; the prices still help at the counter.
+  const online = selling.data !== false;
   return (
     <div className="space-y-3">
       <Alert>{problem}</Alert>
+      {online ? null : <Alert tone="info">This rink does not sell online yet: these are bought at the sharpening counter.</Alert>}
       <ul className="divide-y divide-rule">
         {products.map((p) => (
           <li key={p.id} className="flex flex-wrap items-center justify-between gap-3 py-3">
@@ -41,12 +49,20 @@ export function BuyList({ slug, products }: { slug: string; products: PublicProd
               <p className="font-bold">{p.name}</p>
               <p className="text-sm text-ink-soft tabular-nums">{productTerms(p)}</p>
             </div>
-            <div className="flex items-center gap-3">
-              <span className="font-bold tabular-nums">{formatMoney(p.price.amountMinor, p.price.currency)}</span>
-              <Button onClick={() => void buy(p.id)} busy={leaving === p.id} disabled={leaving !== null}>
-                {p.kind === 'membership' ? 'Join' : 'Buy'}
-                <span className="sr-only"> {p.name}</span>
-              </Button>
+            {/* On a phone the price and its button share their own full-width line, so every button lines up at the right. */}
+            <div className="flex w-full items-center justify-between gap-3 sm:w-auto">
+              <span className="font-bold tabular-nums">
+                {formatMoney(p.price.amountMinor, p.price.currency)}
+                {p.kind === 'membership' ? <span className="text-sm font-medium text-ink-soft"> / {p.interval === 'year' ? 'year' : 'month'}</span> : null}
+              </span>
+              {!online ? null : member(p) ? (
+                <span className="flex min-h-11 items-center text-sm font-semibold">You are a member</span>
+              ) : (
+                <Button className="min-w-20" onClick={() => void buy(p.id)} busy={leaving === p.id} disabled={leaving !== null}>
+                  {p.kind === 'membership' ? 'Join' : 'Buy'}
+                  <span className="sr-only"> {p.name}</span>
+                </Button>
+              )}
             </div>
           </li>
         ))}

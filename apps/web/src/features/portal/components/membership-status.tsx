@@ -18,22 +18,26 @@ export function membershipState(m: MembershipRow, timeZone: string): string {
   }
 }
 
-export function periodLine(m: MembershipRow, timeZone: string): string | null {
+/** The period's end in words, with the date kept whole so a narrow screen never splits it. */
+function PeriodLine({ membership: m, timeZone }: { membership: MembershipRow; timeZone: string }) {
   if (m.state === 'canceled' || !m.periodEnd) return null;
-  const end = formatDate(m.periodEnd, timeZone);
-  return m.cancelAtPeriodEnd ? `Cancels at the end of the period, on ${end}` : `Current period ends ${end}`;
+  const end = <span className="whitespace-nowrap">{formatDate(m.periodEnd, timeZone)}</span>;
+  return m.cancelAtPeriodEnd ? <>Cancels at the end of the period, on {end}</> : <>Current period ends {end}</>;
 }
 
 export function MembershipStatus({ membership, timeZone }: { membership: MembershipRow; timeZone: string }) {
-  const period = periodLine(membership, timeZone);
   const warn = membership.state === 'past_due' || membership.state === 'blocked';
+  const live = membership.state !== 'canceled' && membership.periodEnd !== null;
   return (
     <div>
       <p className="font-semibold">{membership.productName}</p>
       <p className={`text-sm font-semibold ${warn ? 'text-brick' : ''}`}>{membershipState(membership, timeZone)}</p>
       <p className="text-sm text-ink-soft tabular-nums">
-        {membership.creditsPerPeriod} credits per {membership.interval === 'year' ? 'year' : 'month'}
-        {period ? ` · ${period}` : ''}
+        <span className="whitespace-nowrap">
+          {membership.creditsPerPeriod} credits per {membership.interval === 'year' ? 'year' : 'month'}
+        </span>
+        {live ? ' · ' : null}
+        <PeriodLine membership={membership} timeZone={timeZone} />
       </p>
     </div>
   );

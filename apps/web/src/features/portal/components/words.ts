@@ -32,6 +32,15 @@ export const LOT_ORIGIN_WORDS: Record<LotRow['origin'], string> = {
   transfer: 'Transferred',
 };
 
+/** The word before a lot's date: when its credits came, and how. */
+export const LOT_DATE_WORDS: Record<LotRow['origin'], string> = {
+  purchase: 'bought',
+  membership: 'granted',
+  grant: 'granted',
+  adjust: 'added',
+  transfer: 'received',
+};
+
 export const PAYMENT_WORDS: Record<PaymentRow['state'], string> = {
   pending: 'waiting for the payment service',
   paid: 'paid',

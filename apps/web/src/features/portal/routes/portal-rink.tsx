@@ -1,12 +1,9 @@
-import type { ColumnDef } from '@tanstack/react-table';
-import { useMemo } from 'react';
 import { Link, useParams, useSearchParams } from 'react-router';
 import type { PortalRinkDetail } from '@rinkwright/core';
-import { DataTable } from '../../../components/ui/data-table';
+import { LinkButton } from '../../../components/ui/button';
 import { Alert, Loading } from '../../../components/ui/feedback';
 import { Card, PageHeader } from '../../../components/ui/layout';
 import { MemberQr } from '../../../components/ui/member-qr';
-import { NotFound } from '../../../components/ui/not-found';
 import { ApiError } from '../../../lib/api-client';
 import { formatDate, formatDateTime, formatMoney } from '../../../lib/format';
 import { showLength } from '../../../lib/units';
@@ -16,7 +13,9 @@ import { CheckoutReturn } from '../components/checkout-return';
 import { MembershipActions } from '../components/membership-actions';
 import { PreferencesForm } from '../components/preferences-form';
 import { SharpeningList } from '../components/sharpening-list';
-import { credits, ENTRY_WORDS, LOT_ORIGIN_WORDS, PAYMENT_WORDS, signed, SOURCE_WORDS } from '../components/words';
+import { Dotted } from '../components/dotted';
+import { ShowMoreButton, useShowMore } from '../components/show-more';
+import { credits, ENTRY_WORDS, LOT_DATE_WORDS, LOT_ORIGIN_WORDS, PAYMENT_WORDS, signed, SOURCE_WORDS } from '../components/words';
 
 type Entry = PortalRinkDetail['entries'][number];
 
@@ -27,21 +26,30 @@ function Balance({ detail }: { detail: PortalRinkDetail }) {
     <Card title="Credits">
       <p className="text-6xl font-extrabold tabular-nums">{balance.credits}</p>
       <p className="mt-1 text-sm text-ink-soft tabular-nums">
-        Worth {formatMoney(balance.valueMinor, balance.currency)}
-        {detail.nextExpiry ? ` · next expiry ${formatDate(detail.nextExpiry, rink.timeZone)}` : ''}
+        <Dotted parts={[`Worth ${formatMoney(balance.valueMinor, balance.currency)}`, ...(detail.nextExpiry ? [`next expiry ${formatDate(detail.nextExpiry, rink.timeZone)}`] : [])]} />
       </p>
       {lots.length > 0 ? (
         <ul className="mt-4 divide-y divide-rule border-t border-rule">
           {lots.map((l) => (
-            <li key={l.id} className="flex flex-wrap items-baseline justify-between gap-2 py-2 text-sm">
+            <li key={l.id} className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 py-2 text-sm">
               <span>
                 <span className="font-semibold">{l.productName ?? LOT_ORIGIN_WORDS[l.origin]}</span>
-                <span className="text-ink-soft"> · {formatDate(l.createdAt, rink.timeZone)}</span>
+                <span className="text-ink-soft tabular-nums">
+                  {' · '}
+                  <span className="whitespace-nowrap">
+                    {LOT_DATE_WORDS[l.origin]} {formatDate(l.createdAt, rink.timeZone)}
+                  </span>
+                </span>
                 {l.redeemable ? null : <span className="block font-semibold text-brick">Not usable now</span>}
               </span>
               <span className="tabular-nums">
-                {l.remaining} of {l.credits} left · {formatMoney(l.remainingValueMinor, balance.currency)} ·{' '}
-                {l.expiresAt ? `expires ${formatDate(l.expiresAt, rink.timeZone)}` : 'no expiry date'}
+                <Dotted
+                  parts={[
+                    `${l.remaining} of ${l.credits} left`,
+                    `worth ${formatMoney(l.remainingValueMinor, balance.currency)}`,
+                    l.expiresAt ? `expires ${formatDate(l.expiresAt, rink.timeZone)}` : 'no expiry date',
+                  ]}
+                />
               </span>
             </li>
           ))}
@@ -51,21 +59,36 @@ function Balance({ detail }: { detail: PortalRinkDetail }) {
   );
 }
 
+const FIRST_ENTRIES = 10;
+
+/** A list rather than a table: on a phone the date, what happened and the credits still fit on one card's width. */
 function History({ entries, timeZone }: { entries: Entry[]; timeZone: string }) {
-  const columns = useMemo<ColumnDef<Entry, unknown>[]>(
-    () => [
-      { accessorKey: 'createdAt', header: 'Date', cell: ({ row }) => <span className="tabular-nums">{formatDateTime(row.original.createdAt, timeZone)}</span> },
-      { accessorKey: 'kind', header: 'What', cell: ({ row }) => ENTRY_WORDS[row.original.kind] },
-      {
-        accessorKey: 'credits',
-        header: () => <span className="block text-right">Credits</span>,
-        cell: ({ row }) => <span className="block text-right font-semibold tabular-nums">{signed(row.original.credits)}</span>,
-      },
-      { id: 'note', header: 'Note', enableSorting: false, cell: ({ row }) => <span className="text-ink-soft">{row.original.reason ?? SOURCE_WORDS[row.original.source]}</span> },
-    ],
-    [timeZone],
+  const more = useShowMore(entries, FIRST_ENTRIES);
+  if (entries.length === 0) return <p className="text-ink-soft">No credits bought or used yet.</p>;
+  return (
+    <div className="space-y-3">
+      <ul className="divide-y divide-rule">
+        {more.shown.map((e) => (
+          <li key={e.id} className="flex items-center justify-between gap-4 py-2">
+            <div className="min-w-0 text-sm">
+              <p>
+                <span className="font-semibold">{ENTRY_WORDS[e.kind]}</span>
+                <span className="text-ink-soft"> · {e.reason ?? SOURCE_WORDS[e.source]}</span>
+              </p>
+              <p className="text-ink-soft tabular-nums">
+                <time dateTime={e.createdAt}>{formatDateTime(e.createdAt, timeZone)}</time>
+              </p>
+            </div>
+            <span className="shrink-0 text-lg font-bold tabular-nums">
+              {signed(e.credits)}
+              <span className="sr-only"> {Math.abs(e.credits) === 1 ? 'credit' : 'credits'}</span>
+            </span>
+          </li>
+        ))}
+      </ul>
+      <ShowMoreButton open={more.open} hidden={more.hidden} first={FIRST_ENTRIES} noun={['entry', 'entries']} onToggle={more.toggle} />
+    </div>
   );
-  return <DataTable data={entries} columns={columns} caption="Credit history" empty="No credits bought or used yet." />;
 }
 
 function Payments({ detail }: { detail: PortalRinkDetail }) {
@@ -79,12 +102,12 @@ function Payments({ detail }: { detail: PortalRinkDetail }) {
             <span>
               <span className="font-semibold">{p.productName}</span>
               <span className="text-ink-soft tabular-nums">
-                {' '}
-                · {formatDate(p.paidAt ?? p.createdAt, tz)} · {p.channel === 'online' ? 'online' : 'at the counter'}
+                {' · '}
+                <Dotted parts={[formatDate(p.paidAt ?? p.createdAt, tz), p.channel === 'online' ? 'online' : 'at the counter']} />
               </span>
             </span>
             <span className="tabular-nums">
-              {formatMoney(p.amountMinor, p.currency)} · {PAYMENT_WORDS[p.state]}
+              <Dotted parts={[formatMoney(p.amountMinor, p.currency), PAYMENT_WORDS[p.state]]} />
             </span>
           </div>
           {p.refunds.length > 0 ? (
@@ -103,6 +126,25 @@ function Payments({ detail }: { detail: PortalRinkDetail }) {
   );
 }
 
+/** The page exists; what is missing is the skater's record at this rink, so say that and where to go next. */
+function NotLinked({ slug }: { slug: string }) {
+  return (
+    <div className="mx-auto max-w-lg px-4 py-16">
+      <h1 className="text-2xl font-extrabold tracking-tight">You have no record at this rink yet</h1>
+      <p className="mt-3 text-ink-soft">
+        A rink links your account when your verified e-mail address matches the one the rink has for you. Give the counter this address, or buy credits with
+        it on the rink’s own page.
+      </p>
+      <div className="mt-6 flex flex-wrap gap-2">
+        <LinkButton to={`/r/${encodeURIComponent(slug)}`}>The rink’s page</LinkButton>
+        <LinkButton to="/portal" tone="secondary">
+          Back to My skates
+        </LinkButton>
+      </div>
+    </div>
+  );
+}
+
 export function Component() {
   const { slug = '' } = useParams();
   const [params] = useSearchParams();
@@ -112,7 +154,7 @@ export function Component() {
   if (query.isPending) return <Loading />;
   if (query.isError) {
     return query.error instanceof ApiError && query.error.status === 404 ? (
-      <NotFound message="You have no record at this rink yet. A rink links your account when your verified e-mail matches the one it has for you." />
+      <NotLinked slug={slug} />
     ) : (
       <div className="mx-auto max-w-5xl px-4 py-8">
         <Alert>{query.error.message}</Alert>
@@ -130,7 +172,7 @@ export function Component() {
           <>
             {customer.name} ·{' '}
             <Link className="font-semibold text-steel underline" to="/portal">
-              All my rinks
+              Back to My skates
             </Link>
           </>
         }
@@ -157,7 +199,7 @@ export function Component() {
         </Card>
       ) : null}
       <Card title="Buy credits">
-        <BuyList slug={slug} products={detail.products} />
+        <BuyList slug={slug} products={detail.products} memberships={detail.memberships} />
       </Card>
       <Card title="Sharpenings">
         <p className="mb-4 rounded-lg border-l-4 border-amber bg-amber-50 px-3 py-2 text-sm font-medium">
@@ -174,8 +216,8 @@ export function Component() {
               <li key={p.id} className="py-2">
                 <span className="font-semibold">{p.label}</span>
                 <span className="tabular-nums">
-                  {' '}
-                  · blade {showLength(p.bladeWidthNm, unit, 'width')} · hollow {showLength(p.preferredHollowNm, unit, 'hollow')}
+                  {' · '}
+                  <Dotted parts={[`blade ${showLength(p.bladeWidthNm, unit, 'width')}`, `hollow ${showLength(p.preferredHollowNm, unit, 'hollow')}`]} />
                 </span>
                 {p.notes ? <span className="block text-sm text-ink-soft">{p.notes}</span> : null}
               </li>

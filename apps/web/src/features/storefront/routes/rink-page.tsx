@@ -25,13 +25,14 @@ function ProductRow({ product, selling, onBuy }: { product: PublicProduct; selli
         <p className="text-sm text-ink-soft tabular-nums">{productTerms(product)}</p>
         {product.description ? <p className="mt-1 text-sm">{product.description}</p> : null}
       </div>
-      <div className="flex items-center gap-3">
+      {/* On a phone the price and its button share their own full-width line, so every button lines up at the right. */}
+      <div className="flex w-full items-center justify-between gap-3 sm:w-auto">
         <span className="text-lg font-bold tabular-nums">
           {formatMoney(product.price.amountMinor, product.price.currency)}
           {product.kind === 'membership' ? <span className="text-sm font-medium text-ink-soft"> / {product.interval === 'year' ? 'year' : 'month'}</span> : null}
         </span>
         {selling ? (
-          <Button onClick={onBuy}>
+          <Button className="min-w-20" onClick={onBuy}>
             {product.kind === 'membership' ? 'Join' : 'Buy'}
             <span className="sr-only"> {product.name}</span>
           </Button>
