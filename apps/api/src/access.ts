@@ -17,6 +17,8 @@ const rinkStatements = {
   credit: ['read', 'redeem', 'adjust'],
   league: ['read', 'manage'],
   billing: ['read', 'manage'],
+  /** read: every report of the rink; leagues: the league usage report (a league manager's: their leagues only). */
+  report: ['read', 'leagues'],
 } as const;
 
 export const statements = { ...defaultStatements, ...rinkStatements } as const;
@@ -40,7 +42,7 @@ export const roles = {
     league: ['read'],
   }),
   // A league manager sees and runs only the leagues they manage: the leagues service narrows every read and write.
-  league_manager: ac.newRole({ ...staffRead, league: ['read', 'manage'] }),
+  league_manager: ac.newRole({ ...staffRead, league: ['read', 'manage'], report: ['leagues'] }),
 } satisfies Record<StaffRole, unknown>;
 
 export type Permission = { [K in keyof typeof statements]?: (typeof statements)[K][number][] };

@@ -8,7 +8,7 @@ import { pino, type Logger } from 'pino';
 import { pinoHttp } from 'pino-http';
 import { toNodeHandler } from 'better-auth/node';
 import swaggerUi from 'swagger-ui-dist';
-import { connectDb, disconnectDb } from '@rinkwright/db';
+import { connectDb, connectReportsDb, disconnectDb, disconnectReportsDb } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { createAuth, CLIENT_IP_HEADER, trustedOrigins, type Auth } from './auth';
 import type { Env } from './env';
@@ -21,6 +21,7 @@ import { errorHandler, notFoundHandler } from './middleware/errors';
 import { checkOrigin } from './middleware/origin';
 import { meRoutes } from './features/me/router';
 import { platformRoutes } from './features/platform/router';
+import { reportRoutes } from './features/reports/router';
 import { rinkRoutes } from './features/rinks/router';
 import { staffRoutes } from './features/staff/router';
 import { stationRoutes } from './features/stations/router';
@@ -56,6 +57,7 @@ export function routeTable(env: Env, auth: Auth, mailer: Mailer, logger: Logger,
     ...catalogRoutes,
     ...ticketRoutes({ mailer, logger }),
     ...platformRoutes,
+    ...reportRoutes,
     ...billingRoutes(sales),
   );
   return routes;
@@ -64,6 +66,7 @@ export function routeTable(env: Env, auth: Auth, mailer: Mailer, logger: Logger,
 export function createApp(env: Env): AppBundle {
   const logger = pino({ level: env.LOG_LEVEL, redact: ['req.headers.cookie', 'req.headers.authorization', 'res.headers["set-cookie"]'] });
   connectDb(env.DATABASE_URL, { connectionLimit: env.DB_POOL_SIZE });
+  if (env.REPORTS_DATABASE_URL) connectReportsDb(env.REPORTS_DATABASE_URL, { connectionLimit: env.DB_POOL_SIZE });
   const mailer = createMailer(env, logger);
   const auth = createAuth(env, currentDb(), mailer, logger);
   const payments = createPayments(env);
@@ -132,6 +135,7 @@ export function createApp(env: Env): AppBundle {
     logger,
     async close() {
       mailer.close();
+      await disconnectReportsDb();
       await disconnectDb();
     },
   };

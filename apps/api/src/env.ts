@@ -14,6 +14,8 @@ export const envSchema = z.object({
   EXTRA_ORIGINS: list.default(['http://127.0.0.1:5173', 'http://localhost:5173']),
   DATABASE_URL: z.string().startsWith('mysql://', 'DATABASE_URL must be a mysql:// URL'),
   DB_POOL_SIZE: z.coerce.number().int().min(1).max(200).default(10),
+  /** A replica of the database for the reports to read from; unset, they read from DATABASE_URL. */
+  REPORTS_DATABASE_URL: z.string().startsWith('mysql://', 'REPORTS_DATABASE_URL must be a mysql:// URL').optional(),
   BETTER_AUTH_SECRET: z.string().min(32, 'BETTER_AUTH_SECRET must be at least 32 characters'),
   SMTP_HOST: z.string().default('127.0.0.1'),
   SMTP_PORT: z.coerce.number().int().default(1025),

@@ -7,5 +7,6 @@ export * from './api/auth';
 export * from './api/platform';
 export * from './api/desk';
 export * from './api/billing';
+export * from './api/reports';
 export * from './member-code';
 export * from './numbers/index';

@@ -40,6 +40,29 @@ export async function disconnectDb(): Promise<void> {
   await handle?.close();
 }
 
+let reports: DbHandle | undefined;
+
+/**
+ * Opens the pool the reports read through: a replica's URL when the platform runs one, so the heavy reads stay
+ * off the primary. Without it reports read from the main pool.
+ */
+export function connectReportsDb(url: string, options?: { connectionLimit?: number }): DbHandle {
+  if (reports) return reports;
+  reports = createDbHandle(url, options);
+  return reports;
+}
+
+export async function disconnectReportsDb(): Promise<void> {
+  const handle = reports;
+  reports = undefined;
+  await handle?.close();
+}
+
+/** The database reports read from (the replica when one is connected). */
+export function reportsDb(): Database {
+  return reports?.db ?? currentDb();
+}
+
 export function currentDb(): Database {
   if (!current) throw new Error('Database not connected: call connectDb(url) at start-up');
   return current.db;

@@ -1,7 +1,7 @@
 // What feature code may use. The unscoped client lives in '@rinkwright/db/unscoped' and is not for features.
 export * from './schema/index';
-export { scoped, type Scope, type RinkSettings } from './scope';
-export { connectDb, disconnectDb, isDuplicateKey, pingDb } from './client';
+export { scoped, reportScope, type Scope, type RinkSettings } from './scope';
+export { connectDb, connectReportsDb, disconnectDb, disconnectReportsDb, isDuplicateKey, pingDb } from './client';
 export * as directory from './directory';
 export * as platform from './platform';
 export { isTenantTable, checkTenancy, GLOBAL_TABLES } from './tenancy';

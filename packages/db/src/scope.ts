@@ -1,6 +1,6 @@
 import { and, count as countFn, eq, type SQL } from 'drizzle-orm';
 import { getTableConfig, type AnyMySqlColumn, type MySqlTable } from 'drizzle-orm/mysql-core';
-import { currentDb, type Executor } from './client';
+import { currentDb, reportsDb, type Executor } from './client';
 import { rink } from './schema/index';
 import { isTenantTable } from './tenancy';
 
@@ -170,4 +170,9 @@ export function scoped(tenantId: string, executor?: Executor): Scope {
     },
   };
   return scope;
+}
+
+/** A read scope on the reports database (a replica when one is set): report queries only, never writes. */
+export function reportScope(tenantId: string): Scope {
+  return scoped(tenantId, reportsDb());
 }

@@ -71,7 +71,8 @@ export function mountRoutes(app: Express, routes: Route[], auth: Auth): void {
       } else {
         answer = await run();
       }
-      res.status(answer.status).json(answer.body);
+      if (route.produces === 'csv') res.status(answer.status).type('text/csv; charset=utf-8').send(answer.body);
+      else res.status(answer.status).json(answer.body);
     });
   }
 }

@@ -43,6 +43,8 @@ export interface RouteSpec<K extends AccessKind, P, Q, B, R extends Schema> {
   body?: B;
   response: R;
   status?: number;
+  /** 'csv': the handler returns the file's text, sent as text/csv (an export) instead of JSON. */
+  produces?: 'json' | 'csv';
   /**
    * A counter write: requires an Idempotency-Key header, and a repeat of the key gets the first answer.
    * 'optional' honours a key when the client sends one (the web app always does) and works without one.
@@ -69,6 +71,7 @@ export interface Route {
   body?: Schema;
   response: Schema;
   status: number;
+  produces?: 'json' | 'csv';
   idempotent?: boolean | 'optional';
   handle(input: { ctx: unknown; params: unknown; query: unknown; body: unknown; req: Request; res: Response }): Promise<unknown>;
 }

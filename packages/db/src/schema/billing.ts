@@ -116,6 +116,7 @@ export const refund = mysqlTable(
   (t) => [
     unique('refund_tenant_id_unique').on(t.tenantId, t.id),
     index('refund_tenant_payment_idx').on(t.tenantId, t.paymentId),
+    index('refund_tenant_created_idx').on(t.tenantId, t.createdAt),
     rinkFk('refund_rink_fk', t.tenantId),
     sameRinkFk('refund_payment_fk', t.tenantId, t.paymentId, payment.tenantId, payment.id),
   ],
@@ -174,6 +175,9 @@ export const rinkBilling = mysqlTable(
     /** Test mode only: the payment service's test clock that memberships and the plan of this rink run on. */
     testClockId: varchar('test_clock_id', { length: 64 }),
     platformTestClockId: varchar('platform_test_clock_id', { length: 64 }),
+    /** Set by the platform admin: a suspended rink's staff and public page answer nothing until it is reactivated. */
+    suspendedAt: at('suspended_at'),
+    suspendedReason: varchar('suspended_reason', { length: 300 }),
     updatedAt: at('updated_at').notNull(),
   },
   (t) => [primaryKey({ name: 'rink_billing_pk', columns: [t.tenantId] }), rinkFk('rink_billing_rink_fk', t.tenantId)],

@@ -97,6 +97,7 @@ export const creditEntry = mysqlTable(
     index('credit_entry_tenant_source_idx').on(t.tenantId, t.source, t.sourceId),
     index('credit_entry_tenant_kind_idx').on(t.tenantId, t.kind, t.createdAt),
     index('credit_entry_tenant_operation_idx').on(t.tenantId, t.operationId),
+    index('credit_entry_tenant_created_idx').on(t.tenantId, t.createdAt),
     rinkFk('credit_entry_rink_fk', t.tenantId),
     sameRinkFk('credit_entry_account_fk', t.tenantId, t.accountId, creditAccount.tenantId, creditAccount.id),
     sameRinkFk('credit_entry_lot_fk', t.tenantId, t.lotId, creditLot.tenantId, creditLot.id),

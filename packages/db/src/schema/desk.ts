@@ -75,6 +75,7 @@ export const ticket = mysqlTable(
     unique('ticket_tenant_number_unique').on(t.tenantId, t.number),
     index('ticket_tenant_state_idx').on(t.tenantId, t.state, t.promisedAt),
     index('ticket_tenant_customer_idx').on(t.tenantId, t.customerId, t.droppedAt),
+    index('ticket_tenant_ready_idx').on(t.tenantId, t.readyAt),
     rinkFk('ticket_rink_fk', t.tenantId),
     sameRinkFk('ticket_customer_fk', t.tenantId, t.customerId, customer.tenantId, customer.id),
     sameRinkFk('ticket_station_fk', t.tenantId, t.stationId, station.tenantId, station.id),
@@ -96,6 +97,7 @@ export const ticketEvent = mysqlTable(
   },
   (t) => [
     index('ticket_event_tenant_ticket_idx').on(t.tenantId, t.ticketId, t.at),
+    index('ticket_event_tenant_at_idx').on(t.tenantId, t.at),
     rinkFk('ticket_event_rink_fk', t.tenantId),
     sameRinkFk('ticket_event_ticket_fk', t.tenantId, t.ticketId, ticket.tenantId, ticket.id),
   ],
@@ -148,6 +150,9 @@ export const sharpening = mysqlTable(
   (t) => [
     unique('sharpening_tenant_id_unique').on(t.tenantId, t.id),
     index('sharpening_tenant_station_idx').on(t.tenantId, t.stationId, t.doneAt),
+    // The report refresh: what was written since it last ran, and a day's pairs across stations.
+    index('sharpening_tenant_created_idx').on(t.tenantId, t.createdAt),
+    index('sharpening_tenant_done_idx').on(t.tenantId, t.doneAt),
     index('sharpening_tenant_ticket_idx').on(t.tenantId, t.ticketId),
     index('sharpening_tenant_pair_idx').on(t.tenantId, t.ticketPairId),
     rinkFk('sharpening_rink_fk', t.tenantId),
@@ -181,6 +186,7 @@ export const levelReading = mysqlTable(
   (t) => [
     index('level_reading_tenant_station_idx').on(t.tenantId, t.stationId, t.takenAt),
     index('level_reading_tenant_sharpening_idx').on(t.tenantId, t.sharpeningId, t.blade, t.attempt),
+    index('level_reading_tenant_taken_idx').on(t.tenantId, t.takenAt),
     rinkFk('level_reading_rink_fk', t.tenantId),
     sameRinkFk('level_reading_station_fk', t.tenantId, t.stationId, station.tenantId, station.id),
     sameRinkFk('level_reading_sharpening_fk', t.tenantId, t.sharpeningId, sharpening.tenantId, sharpening.id),

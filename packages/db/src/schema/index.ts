@@ -7,3 +7,4 @@ export * from './billing';
 export * from './credits';
 export * from './leagues';
 export * from './outbox';
+export * from './reports';

@@ -74,6 +74,11 @@ export async function startCheckout(s: Scope, deps: SalesDeps, request: Checkout
   const { product, price } = await sellable(s, deps.payments, request.productId);
   if (product.kind === 'league_pack' && !request.leagueId) throw AppError.field('productId', 'League packs are bought by a league manager for a league');
   if (product.kind !== 'league_pack' && request.leagueId) throw AppError.field('productId', 'Choose a league pack');
+  if (product.kind === 'membership' && request.customer) {
+    const held = (await repo.membershipsOf(s, request.customer.id)).find((m) => m.productId === product.id && m.state !== 'canceled' && m.state !== 'incomplete');
+    // A second subscription would charge the skater twice for one membership.
+    if (held) throw new AppError('conflict', `${product.name} is already running for this skater; cancel it before joining again`);
+  }
   const paymentId = randomUUID();
   const fee = applicationFee(price.amountMinor, billing.feeBps);
   await repo.insertPayment(s, {

@@ -9,6 +9,7 @@ import {
   type StationDetail,
   type StationRow,
 } from '@rinkwright/core';
+import { DRIFT_WINDOW, driftOptions } from '../../lib/drift';
 
 // Turns a station's raw history into what its page shows: the readings in their bands, the drift watch, the
 // leveling advice from its own adjustments, and the wheel's life. Pure: the service loads, this computes.
@@ -17,8 +18,6 @@ import {
 const WINDOW = 5;
 /** The advice looks at the station's readings since its last adjustment, the most recent ones. */
 const RECENT = 30;
-/** The drift watch, its chart and the band mix cover the station's latest readings, the same on every screen. */
-export const DRIFT_WINDOW = 120;
 
 const average = (values: number[]) => values.reduce((sum, v) => sum + v, 0) / values.length;
 
@@ -31,11 +30,6 @@ export interface StationHistory {
   now: Date;
 }
 
-const driftOptions = (settings: DeskSettings) => ({ target: 0, lambda: settings.ewmaLambdaMilli / 1000, k: settings.ewmaKMilli / 1000 });
-
-export function driftAlertOf(readingsNm: number[], settings: DeskSettings): boolean {
-  return driftWatch(readingsNm, driftOptions(settings)).alert;
-}
 
 export function assessStation(h: StationHistory): StationDetail {
   const bands = bandsFor({ rink: h.settings, station: h.station, precision: h.station.precision });

@@ -12,7 +12,8 @@ import type {
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
 import { readDeskSettings, saveDeskSettings } from '../../lib/desk-settings';
-import { assessStation, driftAlertOf, DRIFT_WINDOW } from './quality';
+import { driftAlertOf, DRIFT_WINDOW } from '../../lib/drift';
+import { assessStation } from './quality';
 import * as repo from './repository';
 
 const NOT_FOUND = 'No such station at this rink';

@@ -1,0 +1,145 @@
+import { bandsFor, classifyLevel, TURNAROUND_BUCKET_MINUTES, TURNAROUND_LAST_BUCKET, type LevelBands } from '@rinkwright/core';
+import { scoped, type Scope } from '@rinkwright/db';
+import { readDeskSettings } from '../../lib/desk-settings';
+import { consecutiveRuns, localClock, nextDay, type LocalClock } from './local-time';
+import * as repo from './repository';
+
+// Keeps a rink's summary tables current. Rows written since the rink's watermark name the local days they
+// belong to (a sharpening's day, a ticket's ready day, a payment's paid day, an entry's day); each such day is
+// recomputed whole from the raw rows and replaced, so a refresh can run any number of times and the result
+// is the same. The report routes refresh before they read, and the worker refreshes every rink as it goes.
+
+/**
+ * How far before the watermark a refresh looks again: a row whose time was taken just before the last refresh
+ * but whose transaction committed just after it is still found. Recomputing a day twice costs nothing.
+ */
+const OVERLAP_MS = 2 * 60_000;
+
+export interface RefreshResult {
+  days: number;
+  full: boolean;
+}
+
+/** Brings the rink's summaries up to now. `full` recomputes every day the rink has data for. */
+export async function refreshReports(tenantId: string, options: { full?: boolean } = {}): Promise<RefreshResult> {
+  const settings = await readDeskSettings(tenantId);
+  return scoped(tenantId).transaction(async (s) => {
+    const through = await repo.lockWatermark(s);
+    // Taken after the lock: everything written before this moment is in the summaries when the refresh ends.
+    const now = new Date();
+    const rink = await s.rink();
+    const clock = localClock(rink?.timeZone ?? 'UTC');
+    const full = options.full === true || through === null || through.getTime() === 0;
+    let runs: { first: string; last: string }[];
+    if (full) {
+      const span = (await repo.dataSpan(s)).map((d) => clock.of(d).day).sort();
+      const first = span[0];
+      const last = span[span.length - 1];
+      runs = first && last ? [{ first, last }] : [];
+    } else {
+      const changed = await repo.changedInstants(s, new Date(through.getTime() - OVERLAP_MS));
+      runs = consecutiveRuns(changed.map((d) => clock.of(d).day));
+    }
+    const stations = new Map((await repo.stationsOf(s)).map((st) => [st.id, bandsFor({ rink: settings, station: st, precision: st.precision })]));
+    let days = 0;
+    for (const run of runs) days += await rebuildDays(s, clock, run, (stationId) => stations.get(stationId) ?? bandsFor({ rink: settings, station: null, precision: false }));
+    // A full rebuild also clears summaries of days that no longer have any data.
+    if (full) await repo.clearOutside(s, runs[0] ?? null);
+    await repo.saveWatermark(s, now);
+    return { days, full };
+  });
+}
+
+const key = (...parts: (string | number | null)[]) => parts.map((p) => p ?? '').join('|');
+
+async function rebuildDays(s: Scope, clock: LocalClock, run: { first: string; last: string }, bandsOf: (stationId: string) => LevelBands): Promise<number> {
+  const range = { start: clock.startOf(run.first), end: clock.startOf(nextDay(run.last)) };
+  const [sharpenings, readings, tickets, paid, refunds, entries] = await Promise.all([
+    repo.sharpeningsIn(s, range),
+    repo.readingsIn(s, range),
+    repo.ticketsReadyIn(s, range),
+    repo.paymentsPaidIn(s, range),
+    repo.refundsIn(s, range),
+    repo.entriesIn(s, range),
+  ]);
+
+  const corrected = new Set(sharpenings.flatMap((sh) => (sh.correctsId ? [sh.correctsId] : [])));
+  const work = new Map<string, repo.WorkHourRow>();
+  const workOf = new Map<string, repo.WorkHourRow>();
+  for (const sh of sharpenings) {
+    const { day, hour } = clock.of(sh.doneAt);
+    const k = key(day, hour, sh.stationId, sh.technicianId, sh.wheelId);
+    let row = work.get(k);
+    if (!row) {
+      row = { day, hour, stationId: sh.stationId, technicianId: sh.technicianId, wheelId: sh.wheelId ?? '', pairs: 0, passes: 0, firstReadings: 0, firstTrue: 0, firstFair: 0, firstOff: 0, reruns: 0, firstAbsNm: 0 };
+      work.set(k, row);
+    }
+    // A correction replaces an earlier record of the same pair: the pair counts once, the passes of the latest record.
+    if (!sh.correctsId) row.pairs += 1;
+    if (!corrected.has(sh.id)) row.passes += sh.passes;
+    workOf.set(sh.id, row);
+  }
+  const stationOfSharpening = new Map(sharpenings.map((sh) => [sh.id, sh.stationId]));
+  for (const r of readings) {
+    const row = r.sharpeningId ? workOf.get(r.sharpeningId) : undefined;
+    if (!row) continue;
+    if (r.attempt === 1) {
+      row.firstReadings += 1;
+      row.firstAbsNm += Math.abs(r.readingNm);
+      const band = classifyLevel(r.readingNm, bandsOf(stationOfSharpening.get(r.sharpeningId!) ?? ''));
+      if (band === 'true') row.firstTrue += 1;
+      else if (band === 'fair') row.firstFair += 1;
+      else row.firstOff += 1;
+    } else if (r.attempt === 2) {
+      row.reruns += 1;
+    }
+  }
+
+  const turnaround = new Map<string, repo.TurnaroundRow>();
+  for (const t of tickets) {
+    if (!t.readyAt) continue;
+    const minutes = (t.readyAt.getTime() - t.droppedAt.getTime()) / 60_000;
+    // A ready time before the drop-off can only be a clock or data error: left out, as the median is.
+    if (!(minutes >= 0)) continue;
+    const bucket = Math.min(Math.floor(minutes / TURNAROUND_BUCKET_MINUTES), TURNAROUND_LAST_BUCKET);
+    const { day } = clock.of(t.readyAt);
+    const k = key(day, t.stationId, bucket);
+    const row = turnaround.get(k) ?? { day, stationId: t.stationId ?? '', bucket, tickets: 0, onTime: 0 };
+    row.tickets += 1;
+    if (t.readyAt.getTime() <= t.promisedAt.getTime()) row.onTime += 1;
+    turnaround.set(k, row);
+  }
+
+  const money = new Map<string, repo.MoneyDayRow>();
+  const moneyRow = (day: string, productId: string, channel: string) => {
+    const k = key(day, productId, channel);
+    const row = money.get(k) ?? { day, productId, channel, sales: 0, salesMinor: 0, feesMinor: 0, refunds: 0, refundsMinor: 0 };
+    money.set(k, row);
+    return row;
+  };
+  for (const p of paid) {
+    if (!p.paidAt) continue;
+    const row = moneyRow(clock.of(p.paidAt).day, p.productId, p.channel);
+    row.sales += 1;
+    row.salesMinor += p.amountMinor;
+    row.feesMinor += p.feeMinor;
+  }
+  for (const r of refunds) {
+    const row = moneyRow(clock.of(r.createdAt).day, r.productId, r.channel);
+    row.refunds += 1;
+    row.refundsMinor += r.amountMinor;
+  }
+
+  const credit = new Map<string, repo.CreditDayRow>();
+  for (const e of entries) {
+    const day = clock.of(e.createdAt).day;
+    const k = key(day, e.kind, e.productId);
+    const row = credit.get(k) ?? { day, kind: e.kind, productId: e.productId ?? '', credits: 0, valueMinor: 0 };
+    row.credits += e.credits;
+    row.valueMinor += e.valueMinor;
+    credit.set(k, row);
+  }
+
+  await repo.replaceDays(s, run, { work: [...work.values()], turnaround: [...turnaround.values()], money: [...money.values()], credit: [...credit.values()] });
+  return Math.round((range.end.getTime() - range.start.getTime()) / 86_400_000);
+}

@@ -1,0 +1,357 @@
+import { and, asc, eq, gte, inArray, isNotNull, isNull, lt, max, min, sql, sum, type SQL } from 'drizzle-orm';
+import type { AnyMySqlColumn } from 'drizzle-orm/mysql-core';
+import {
+  creditAccount,
+  creditEntry,
+  creditLot,
+  leagueTeam,
+  league,
+  levelReading,
+  levelingAdjustment,
+  membership,
+  payment,
+  product,
+  productPrice,
+  refund,
+  reportCreditDay,
+  reportMoneyDay,
+  reportRefresh,
+  reportTurnaround,
+  reportWorkHour,
+  sharpening,
+  station,
+  ticket,
+  ticketEvent,
+  user,
+  wheel,
+  wheelEvent,
+  member,
+  type Scope,
+} from '@rinkwright/db';
+
+// The reports' only door to the database: the raw rows a refresh summarises (read on the primary, inside the
+// refresh's transaction), the summary rows it writes, and the summary reads of the reports (on the reports
+// scope, which is a replica when one is set).
+
+export type Range = { start: Date; end: Date };
+const inRange = (column: Parameters<typeof gte>[0], r: Range) => and(gte(column, r.start), lt(column, r.end));
+const n = (v: unknown) => Number(v ?? 0);
+
+// ---- the watermark ---------------------------------------------------------------------------------------------
+
+/** Locks the rink's refresh row (made on first use), so two refreshes of one rink never interleave. */
+export async function lockWatermark(s: Scope): Promise<Date | null> {
+  const [row] = await s.lock(reportRefresh, s.filter(reportRefresh));
+  if (row) return row.through;
+  await s.insert(reportRefresh, { through: new Date(0), refreshedAt: new Date(0) }).catch((error: unknown) => {
+    // Another refresh made the row a moment ago: its lock below waits for that refresh to finish.
+    if (!(error instanceof Error && /Duplicate entry/.test(error.message))) throw error;
+  });
+  await s.lock(reportRefresh, s.filter(reportRefresh));
+  return null;
+}
+
+export const saveWatermark = (s: Scope, through: Date) => s.update(reportRefresh, { through, refreshedAt: new Date() }, s.filter(reportRefresh));
+
+// ---- what changed since the watermark (business times of the rows written since) -------------------------------
+
+export async function changedInstants(s: Scope, since: Date): Promise<Date[]> {
+  const [sharpened, read, events, entries, paid, refunded] = await Promise.all([
+    s.findJoined(sharpening, { fields: { at: sharpening.doneAt }, joins: [], where: gte(sharpening.createdAt, since) }),
+    s.findJoined(levelReading, {
+      fields: { at: sharpening.doneAt },
+      joins: [{ table: sharpening, on: eq(sharpening.id, levelReading.sharpeningId) }],
+      where: gte(levelReading.takenAt, since),
+    }),
+    s.findJoined(ticketEvent, {
+      fields: { at: ticketEvent.at, readyAt: ticket.readyAt },
+      joins: [{ table: ticket, on: eq(ticket.id, ticketEvent.ticketId) }],
+      where: gte(ticketEvent.at, since),
+    }),
+    s.findJoined(creditEntry, { fields: { at: creditEntry.createdAt }, joins: [], where: gte(creditEntry.createdAt, since) }),
+    s.findJoined(payment, { fields: { at: payment.paidAt }, joins: [], where: gte(payment.paidAt, since) }),
+    s.findJoined(refund, { fields: { at: refund.createdAt }, joins: [], where: gte(refund.createdAt, since) }),
+  ]);
+  const instants: Date[] = [];
+  for (const list of [sharpened, read, entries, paid, refunded]) for (const r of list) if (r.at) instants.push(r.at);
+  for (const e of events) {
+    instants.push(e.at);
+    if (e.readyAt) instants.push(e.readyAt);
+  }
+  return instants;
+}
+
+/** The first and last business times of everything the rink has, for a full rebuild. */
+export async function dataSpan(s: Scope): Promise<Date[]> {
+  const spans = await Promise.all([
+    s.findJoined(sharpening, { fields: { a: min(sharpening.doneAt), b: max(sharpening.doneAt) }, joins: [] }),
+    s.findJoined(ticket, { fields: { a: min(ticket.readyAt), b: max(ticket.readyAt) }, joins: [], where: isNotNull(ticket.readyAt) }),
+    s.findJoined(creditEntry, { fields: { a: min(creditEntry.createdAt), b: max(creditEntry.createdAt) }, joins: [] }),
+    s.findJoined(payment, { fields: { a: min(payment.paidAt), b: max(payment.paidAt) }, joins: [] }),
+    s.findJoined(refund, { fields: { a: min(refund.createdAt), b: max(refund.createdAt) }, joins: [] }),
+  ]);
+  return spans.flatMap(([r]) => [r?.a, r?.b]).filter((d): d is Date => d instanceof Date);
+}
+
+// ---- raw rows of a range -----------------------------------------------------------------------------------------
+
+export const sharpeningsIn = (s: Scope, r: Range) =>
+  s.findJoined(sharpening, {
+    fields: { id: sharpening.id, stationId: sharpening.stationId, technicianId: sharpening.technicianId, wheelId: sharpening.wheelId, passes: sharpening.passes, doneAt: sharpening.doneAt, correctsId: sharpening.correctsId },
+    joins: [],
+    where: inRange(sharpening.doneAt, r),
+  });
+
+/** Sharpening readings of the sharpenings done in the range. */
+export const readingsIn = (s: Scope, r: Range) =>
+  s.findJoined(levelReading, {
+    fields: { sharpeningId: levelReading.sharpeningId, blade: levelReading.blade, attempt: levelReading.attempt, readingNm: levelReading.readingNm },
+    joins: [{ table: sharpening, on: eq(sharpening.id, levelReading.sharpeningId) }],
+    where: and(inRange(sharpening.doneAt, r), eq(levelReading.kind, 'sharpening')),
+  });
+
+export const ticketsReadyIn = (s: Scope, r: Range) =>
+  s.findJoined(ticket, {
+    fields: { stationId: ticket.stationId, droppedAt: ticket.droppedAt, promisedAt: ticket.promisedAt, readyAt: ticket.readyAt },
+    joins: [],
+    where: inRange(ticket.readyAt, r),
+  });
+
+export const paymentsPaidIn = (s: Scope, r: Range) =>
+  s.findJoined(payment, {
+    fields: { productId: payment.productId, channel: payment.channel, amountMinor: payment.amountMinor, feeMinor: payment.feeMinor, paidAt: payment.paidAt },
+    joins: [],
+    where: inRange(payment.paidAt, r),
+  });
+
+export const refundsIn = (s: Scope, r: Range) =>
+  s.findJoined(refund, {
+    fields: { productId: payment.productId, channel: payment.channel, amountMinor: refund.amountMinor, createdAt: refund.createdAt },
+    joins: [{ table: payment, on: eq(payment.id, refund.paymentId) }],
+    where: inRange(refund.createdAt, r),
+  });
+
+/** Entries of the range; a reversal carries the kind of the entry it reverses. */
+export async function entriesIn(s: Scope, r: Range) {
+  const rows = await s.findJoined(creditEntry, {
+    fields: { id: creditEntry.id, kind: creditEntry.kind, reversesId: creditEntry.reversesId, credits: creditEntry.credits, valueMinor: creditEntry.valueMinor, createdAt: creditEntry.createdAt, productId: creditLot.productId },
+    joins: [{ table: creditLot, on: eq(creditLot.id, creditEntry.lotId) }],
+    where: inRange(creditEntry.createdAt, r),
+  });
+  const reversed = [...new Set(rows.flatMap((e) => (e.kind === 'reversal' && e.reversesId ? [e.reversesId] : [])))];
+  const kinds = new Map<string, string>();
+  for (let i = 0; i < reversed.length; i += 500) {
+    const found = await s.findJoined(creditEntry, { fields: { id: creditEntry.id, kind: creditEntry.kind }, joins: [], where: inArray(creditEntry.id, reversed.slice(i, i + 500)) });
+    for (const f of found) kinds.set(f.id, f.kind);
+  }
+  return rows.map((e) => ({ ...e, kind: e.kind === 'reversal' && e.reversesId ? (kinds.get(e.reversesId) ?? 'reversal') : e.kind }));
+}
+
+// ---- summary rows: a range of days is replaced as a whole ----------------------------------------------------------
+
+export type WorkHourRow = Omit<typeof reportWorkHour.$inferInsert, 'tenantId'>;
+export type TurnaroundRow = Omit<typeof reportTurnaround.$inferInsert, 'tenantId'>;
+export type MoneyDayRow = Omit<typeof reportMoneyDay.$inferInsert, 'tenantId'>;
+export type CreditDayRow = Omit<typeof reportCreditDay.$inferInsert, 'tenantId'>;
+
+export async function replaceDays(
+  s: Scope,
+  days: { first: string; last: string },
+  rows: { work: WorkHourRow[]; turnaround: TurnaroundRow[]; money: MoneyDayRow[]; credit: CreditDayRow[] },
+): Promise<void> {
+  const tables = [
+    [reportWorkHour, rows.work],
+    [reportTurnaround, rows.turnaround],
+    [reportMoneyDay, rows.money],
+    [reportCreditDay, rows.credit],
+  ] as const;
+  for (const [table, list] of tables) {
+    await s.remove(table, sql`${table.day} >= ${days.first} and ${table.day} <= ${days.last}`);
+    for (let i = 0; i < list.length; i += 1000) await s.insert(table, list.slice(i, i + 1000) as never);
+  }
+}
+
+/** Removes summary rows outside a span of days (all of them without one): a full rebuild leaves nothing stale. */
+export async function clearOutside(s: Scope, span: { first: string; last: string } | null): Promise<void> {
+  for (const table of [reportWorkHour, reportTurnaround, reportMoneyDay, reportCreditDay]) {
+    await s.remove(table, span ? sql`(${table.day} < ${span.first} or ${table.day} > ${span.last})` : sql`1 = 1`);
+  }
+}
+
+// ---- reading the summaries --------------------------------------------------------------------------------------------
+
+export interface SummaryFilter {
+  from: string;
+  to: string;
+  stationId?: string | undefined;
+  technicianId?: string | undefined;
+}
+
+const dayIn = (column: AnyMySqlColumn, f: SummaryFilter) => sql`${column} >= ${f.from} and ${column} <= ${f.to}`;
+const workWhere = (f: SummaryFilter) =>
+  and(dayIn(reportWorkHour.day, f), f.stationId ? eq(reportWorkHour.stationId, f.stationId) : undefined, f.technicianId ? eq(reportWorkHour.technicianId, f.technicianId) : undefined);
+
+const workSums = {
+  pairs: sum(reportWorkHour.pairs),
+  passes: sum(reportWorkHour.passes),
+  firstReadings: sum(reportWorkHour.firstReadings),
+  firstTrue: sum(reportWorkHour.firstTrue),
+  firstFair: sum(reportWorkHour.firstFair),
+  firstOff: sum(reportWorkHour.firstOff),
+  reruns: sum(reportWorkHour.reruns),
+  firstAbsNm: sum(reportWorkHour.firstAbsNm),
+};
+type WorkSums = { [K in keyof typeof workSums]: number };
+const numbers = <T extends Record<string, unknown>>(row: T) => Object.fromEntries(Object.entries(row).map(([k, v]) => [k, typeof v === 'string' && k !== 'day' && !k.endsWith('Id') ? n(v) : v])) as T;
+
+/** Work per station, technician, day and hour; staffed hours are counted from these rows by the service. */
+export async function workRows(s: Scope, f: SummaryFilter) {
+  const rows = await s.findJoined(reportWorkHour, {
+    fields: { day: reportWorkHour.day, hour: reportWorkHour.hour, stationId: reportWorkHour.stationId, technicianId: reportWorkHour.technicianId, ...workSums },
+    joins: [],
+    where: workWhere(f),
+    groupBy: [reportWorkHour.day, reportWorkHour.hour, reportWorkHour.stationId, reportWorkHour.technicianId],
+  });
+  return rows.map((r) => numbers(r) as typeof r & WorkSums);
+}
+
+/** Pairs and passes of each wheel per local day (a wheel's life, and the passes before each of its dressings). */
+export async function wheelDays(s: Scope, wheelIds: string[]) {
+  if (wheelIds.length === 0) return [];
+  const rows = await s.findJoined(reportWorkHour, {
+    fields: { wheelId: reportWorkHour.wheelId, day: reportWorkHour.day, pairs: sum(reportWorkHour.pairs), passes: sum(reportWorkHour.passes) },
+    joins: [],
+    where: inArray(reportWorkHour.wheelId, wheelIds),
+    groupBy: [reportWorkHour.wheelId, reportWorkHour.day],
+    orderBy: asc(reportWorkHour.day),
+  });
+  return rows.map((r) => ({ wheelId: r.wheelId, day: r.day, pairs: n(r.pairs), passes: n(r.passes) }));
+}
+
+export async function turnaroundRows(s: Scope, f: SummaryFilter) {
+  const rows = await s.findJoined(reportTurnaround, {
+    fields: { day: reportTurnaround.day, bucket: reportTurnaround.bucket, tickets: sum(reportTurnaround.tickets), onTime: sum(reportTurnaround.onTime) },
+    joins: [],
+    where: and(dayIn(reportTurnaround.day, f), f.stationId ? eq(reportTurnaround.stationId, f.stationId) : undefined),
+    groupBy: [reportTurnaround.day, reportTurnaround.bucket],
+  });
+  return rows.map((r) => ({ day: r.day, bucket: r.bucket, tickets: n(r.tickets), onTime: n(r.onTime) }));
+}
+
+export async function moneyRows(s: Scope, f: SummaryFilter) {
+  const rows = await s.findJoined(reportMoneyDay, {
+    fields: {
+      day: reportMoneyDay.day,
+      productId: reportMoneyDay.productId,
+      channel: reportMoneyDay.channel,
+      sales: sum(reportMoneyDay.sales),
+      salesMinor: sum(reportMoneyDay.salesMinor),
+      feesMinor: sum(reportMoneyDay.feesMinor),
+      refunds: sum(reportMoneyDay.refunds),
+      refundsMinor: sum(reportMoneyDay.refundsMinor),
+    },
+    joins: [],
+    where: dayIn(reportMoneyDay.day, f),
+    groupBy: [reportMoneyDay.day, reportMoneyDay.productId, reportMoneyDay.channel],
+  });
+  return rows.map((r) => ({ day: r.day, productId: r.productId, channel: r.channel, sales: n(r.sales), salesMinor: n(r.salesMinor), feesMinor: n(r.feesMinor), refunds: n(r.refunds), refundsMinor: n(r.refundsMinor) }));
+}
+
+export async function creditRows(s: Scope, f: SummaryFilter) {
+  const rows = await s.findJoined(reportCreditDay, {
+    fields: { day: reportCreditDay.day, kind: reportCreditDay.kind, credits: sum(reportCreditDay.credits), valueMinor: sum(reportCreditDay.valueMinor) },
+    joins: [],
+    where: dayIn(reportCreditDay.day, f),
+    groupBy: [reportCreditDay.day, reportCreditDay.kind],
+  });
+  return rows.map((r) => ({ day: r.day, kind: r.kind, credits: n(r.credits), valueMinor: n(r.valueMinor) }));
+}
+
+/** Σ of every entry up to and including a day: the credits outstanding then and their value. */
+export async function outstandingThrough(s: Scope, day: string) {
+  const [row] = await s.findJoined(reportCreditDay, { fields: { credits: sum(reportCreditDay.credits), valueMinor: sum(reportCreditDay.valueMinor) }, joins: [], where: sql`${reportCreditDay.day} <= ${day}` });
+  return { credits: n(row?.credits), valueMinor: n(row?.valueMinor) };
+}
+
+// ---- small tables read directly (a rink has few of these rows) ---------------------------------------------------------
+
+export const stationsOf = (s: Scope) => s.find(station, { orderBy: asc(station.name) });
+export const productsOf = (s: Scope) => s.findJoined(product, { fields: { id: product.id, name: product.name, kind: product.kind }, joins: [], orderBy: asc(product.name) });
+export const techniciansOf = (s: Scope) =>
+  s.findJoined(member, { fields: { id: user.id, name: user.name, role: member.role }, joins: [{ table: user, on: eq(user.id, member.userId) }], orderBy: asc(user.name) });
+
+export const adjustmentsIn = (s: Scope, r: Range, stationId?: string) =>
+  s.find(levelingAdjustment, { where: and(inRange(levelingAdjustment.at, r), stationId ? eq(levelingAdjustment.stationId, stationId) : undefined), orderBy: asc(levelingAdjustment.at) });
+
+/** The drift watch's series of a station (check readings and first readings): those in the range, oldest first. */
+export const seriesIn = (s: Scope, stationId: string, r: Range) =>
+  s.findJoined(levelReading, {
+    fields: { takenAt: levelReading.takenAt, readingNm: levelReading.readingNm },
+    joins: [],
+    where: and(eq(levelReading.stationId, stationId), inRange(levelReading.takenAt, r), sql`(${levelReading.kind} = 'check' or ${levelReading.attempt} = 1)`),
+    orderBy: asc(levelReading.takenAt),
+  });
+
+/** The same series' last `limit` values before a moment, newest first. */
+export const seriesBefore = (s: Scope, stationId: string, at: Date, limit: number) =>
+  s.findJoined(levelReading, {
+    fields: { takenAt: levelReading.takenAt, readingNm: levelReading.readingNm },
+    joins: [],
+    where: and(eq(levelReading.stationId, stationId), lt(levelReading.takenAt, at), sql`(${levelReading.kind} = 'check' or ${levelReading.attempt} = 1)`),
+    orderBy: sql`${levelReading.takenAt} desc`,
+    limit,
+  });
+
+/** The last `limit` first readings before a moment (newest first), or the first after it (oldest first). */
+export const firstReadingsAround = (s: Scope, stationId: string, at: Date, side: 'before' | 'after', limit: number) =>
+  s.findJoined(levelReading, {
+    fields: { readingNm: levelReading.readingNm },
+    joins: [],
+    where: and(eq(levelReading.stationId, stationId), eq(levelReading.attempt, 1), side === 'before' ? lt(levelReading.takenAt, at) : gte(levelReading.takenAt, at)),
+    orderBy: side === 'before' ? sql`${levelReading.takenAt} desc` : asc(levelReading.takenAt),
+    limit,
+  });
+
+/** Wheels in use at some time in the range (mounted before its end, not removed before its start). */
+export const wheelsIn = (s: Scope, r: Range) =>
+  s.find(wheel, { where: and(lt(wheel.mountedAt, r.end), sql`(${wheel.removedAt} is null or ${wheel.removedAt} >= ${r.start})`), orderBy: asc(wheel.mountedAt) });
+
+export const wheelEventsOf = (s: Scope, wheelIds: string[]) =>
+  wheelIds.length === 0 ? Promise.resolve([]) : s.find(wheelEvent, { where: inArray(wheelEvent.wheelId, wheelIds), orderBy: asc(wheelEvent.at) });
+
+/** Every membership with its product's billing interval and current price (a rink has few). */
+export const membershipsWithPrice = (s: Scope) =>
+  s.findJoined(membership, {
+    fields: { state: membership.state, createdAt: membership.createdAt, updatedAt: membership.updatedAt, interval: product.interval, amountMinor: productPrice.amountMinor },
+    joins: [
+      { table: product, on: eq(product.id, membership.productId) },
+      { table: productPrice, on: and(eq(productPrice.productId, product.id), isNull(productPrice.retiredAt)) as SQL },
+    ],
+  });
+
+export const leaguesOf = (s: Scope, managerUserId?: string) =>
+  s.find(league, { where: managerUserId ? eq(league.managerUserId, managerUserId) : undefined, orderBy: asc(league.name) });
+
+/** Per team of the leagues: credits given to it, used in the range and in all, and left. */
+export async function teamUsage(s: Scope, leagueIds: string[], r: Range) {
+  if (leagueIds.length === 0) return [];
+  const used = sql`${creditEntry.kind} in ('redeem', 'reversal')`;
+  return s.findJoined(leagueTeam, {
+    fields: {
+      leagueId: leagueTeam.leagueId,
+      teamId: leagueTeam.id,
+      team: leagueTeam.name,
+      allocated: sql<number>`coalesce(sum(case when ${creditEntry.kind} = 'transfer' then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
+      usedInPeriod: sql<number>`coalesce(-sum(case when ${used} and ${creditEntry.createdAt} >= ${r.start} and ${creditEntry.createdAt} < ${r.end} then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
+      used: sql<number>`coalesce(-sum(case when ${used} then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
+      remaining: sql<number>`coalesce(sum(${creditEntry.credits}), 0)`.mapWith(Number),
+    },
+    joins: [
+      { table: creditAccount, on: eq(creditAccount.teamId, leagueTeam.id) },
+      { table: creditEntry, on: eq(creditEntry.accountId, creditAccount.id) },
+    ],
+    where: inArray(leagueTeam.leagueId, leagueIds),
+    groupBy: [leagueTeam.leagueId, leagueTeam.id, leagueTeam.name],
+    orderBy: asc(leagueTeam.name),
+  });
+}

@@ -1,0 +1,369 @@
+import { stringify } from 'csv-stringify/sync';
+import {
+  reportColumns,
+  TURNAROUND_BUCKET_MINUTES,
+  TURNAROUND_LAST_BUCKET,
+  wheelWear,
+  type LeagueReport,
+  type MoneyReport,
+  type QualityReport,
+  type ReportName,
+  type ReportQuery,
+  type ThroughputReport,
+} from '@rinkwright/core';
+import { reportScope, type Scope } from '@rinkwright/db';
+import { AppError } from '../../http/errors';
+import type { RinkContext } from '../../http/route';
+import { readDeskSettings } from '../../lib/desk-settings';
+import { driftAlertOf, DRIFT_WINDOW } from '../../lib/drift';
+import { localClock, nextDay, weekdayOf } from './local-time';
+import { refreshReports } from './refresh';
+import * as repo from './repository';
+
+// The four reports of a rink, from its summary tables (read on the reports database). A report first brings
+// the summaries up to date, so what it shows includes the last write.
+
+type Period = { from: string; to: string };
+type Filters = Pick<ReportQuery, 'stationId' | 'technicianId'>;
+
+const ratio = (part: number, whole: number) => (whole > 0 ? part / whole : null);
+const round2 = (v: number | null) => (v === null ? null : Math.round(v * 100) / 100);
+
+/** Minutes within which a share p of the tickets were ready, read off the histogram to the bucket's upper end. */
+export function histogramPercentile(buckets: { bucket: number; tickets: number }[], p: number): number | null {
+  const total = buckets.reduce((n, b) => n + b.tickets, 0);
+  if (total === 0) return null;
+  const sorted = [...buckets].sort((a, b) => a.bucket - b.bucket);
+  const rank = Math.ceil(p * total);
+  let seen = 0;
+  for (const b of sorted) {
+    seen += b.tickets;
+    if (seen >= rank) return Math.min(b.bucket + 1, TURNAROUND_LAST_BUCKET) * TURNAROUND_BUCKET_MINUTES;
+  }
+  return null;
+}
+
+/** Staffed hours: the local hours in which a technician logged at least one pair (one hour per technician). */
+const staffedHours = (rows: { day: string; hour: number; technicianId: string; pairs: number }[]) =>
+  new Set(rows.filter((r) => r.pairs > 0).map((r) => `${r.day}|${r.hour}|${r.technicianId}`)).size;
+
+async function throughputTotals(s: Scope, period: Period, filters: Filters) {
+  const f = { from: period.from, to: period.to, stationId: filters.stationId, technicianId: filters.technicianId };
+  const [work, turnaround] = await Promise.all([repo.workRows(s, f), repo.turnaroundRows(s, f)]);
+  const pairs = work.reduce((n, r) => n + r.pairs, 0);
+  const hours = staffedHours(work);
+  const ready = turnaround.reduce((n, r) => n + r.tickets, 0);
+  const onTime = turnaround.reduce((n, r) => n + r.onTime, 0);
+  const byBucket = new Map<number, number>();
+  for (const r of turnaround) byBucket.set(r.bucket, (byBucket.get(r.bucket) ?? 0) + r.tickets);
+  const buckets = [...byBucket].map(([bucket, tickets]) => ({ bucket, tickets }));
+  return {
+    work,
+    turnaround,
+    totals: {
+      pairs,
+      staffedHours: hours,
+      pairsPerStaffedHour: round2(ratio(pairs, hours)),
+      ticketsReady: ready,
+      medianTurnaroundMinutes: histogramPercentile(buckets, 0.5),
+      p90TurnaroundMinutes: histogramPercentile(buckets, 0.9),
+      promisedHitRate: ratio(onTime, ready),
+    },
+  };
+}
+
+export async function throughput(s: Scope, q: ReportQuery): Promise<ThroughputReport> {
+  const [current, compare, stations, people] = await Promise.all([
+    throughputTotals(s, q, q),
+    q.compareFrom && q.compareTo ? throughputTotals(s, { from: q.compareFrom, to: q.compareTo }, q) : null,
+    repo.stationsOf(s),
+    repo.techniciansOf(s),
+  ]);
+  const stationName = new Map(stations.map((st) => [st.id, st.name]));
+  const personName = new Map(people.map((p) => [p.id, p.name]));
+  const group = <K extends 'stationId' | 'technicianId'>(field: K) => {
+    const groups = new Map<string, typeof current.work>();
+    for (const r of current.work) groups.set(r[field], [...(groups.get(r[field]) ?? []), r]);
+    return [...groups].map(([id, rows]) => {
+      const pairs = rows.reduce((n, r) => n + r.pairs, 0);
+      const hours = staffedHours(rows);
+      return { id, pairs, staffedHours: hours, pairsPerStaffedHour: round2(ratio(pairs, hours)) };
+    });
+  };
+  const days = new Map<string, { pairs: number; ticketsReady: number; onTime: number }>();
+  for (let d = q.from; d <= q.to; d = nextDay(d)) days.set(d, { pairs: 0, ticketsReady: 0, onTime: 0 });
+  for (const r of current.work) days.get(r.day)!.pairs += r.pairs;
+  for (const r of current.turnaround) {
+    const day = days.get(r.day)!;
+    day.ticketsReady += r.tickets;
+    day.onTime += r.onTime;
+  }
+  const heat = new Map<string, number>();
+  for (const r of current.work) heat.set(`${weekdayOf(r.day)}|${r.hour}`, (heat.get(`${weekdayOf(r.day)}|${r.hour}`) ?? 0) + r.pairs);
+  return {
+    period: { from: q.from, to: q.to },
+    totals: current.totals,
+    compare: compare && q.compareFrom && q.compareTo ? { period: { from: q.compareFrom, to: q.compareTo }, totals: compare.totals } : null,
+    tables: {
+      byDay: [...days].map(([day, v]) => ({ day, ...v })),
+      byStation: group('stationId')
+        .map(({ id, ...v }) => ({ stationId: id, station: stationName.get(id) ?? 'Removed station', ...v }))
+        .sort((a, b) => a.station.localeCompare(b.station)),
+      byTechnician: group('technicianId')
+        .map(({ id, ...v }) => ({ technicianId: id, technician: personName.get(id) ?? 'Former staff', ...v }))
+        .sort((a, b) => a.technician.localeCompare(b.technician)),
+      byHour: [...heat]
+        .map(([k, pairs]) => {
+          const [weekday, hour] = k.split('|').map(Number) as [number, number];
+          return { weekday, hour, pairs };
+        })
+        .sort((a, b) => a.weekday - b.weekday || a.hour - b.hour),
+    },
+  };
+}
+
+function qualityOf(rows: { firstReadings: number; firstTrue: number; firstFair: number; firstOff: number; reruns: number; firstAbsNm: number }[]) {
+  const t = rows.reduce((a, r) => ({ firstReadings: a.firstReadings + r.firstReadings, firstTrue: a.firstTrue + r.firstTrue, firstFair: a.firstFair + r.firstFair, firstOff: a.firstOff + r.firstOff, reruns: a.reruns + r.reruns, firstAbsNm: a.firstAbsNm + r.firstAbsNm }), {
+    firstReadings: 0,
+    firstTrue: 0,
+    firstFair: 0,
+    firstOff: 0,
+    reruns: 0,
+    firstAbsNm: 0,
+  });
+  return {
+    firstReadings: t.firstReadings,
+    trueShare: ratio(t.firstTrue, t.firstReadings),
+    fairShare: ratio(t.firstFair, t.firstReadings),
+    offShare: ratio(t.firstOff, t.firstReadings),
+    reRunRate: ratio(t.reruns, t.firstReadings),
+    meanAbsReadingNm: t.firstReadings > 0 ? Math.round(t.firstAbsNm / t.firstReadings) : null,
+  };
+}
+
+/** Drift alerts that began and ended in the period: the drift watch evaluated after each reading of the series. */
+async function driftEpisodes(s: Scope, stationId: string, range: repo.Range, settings: Awaited<ReturnType<typeof readDeskSettings>>) {
+  const [before, during] = await Promise.all([repo.seriesBefore(s, stationId, range.start, DRIFT_WINDOW), repo.seriesIn(s, stationId, range)]);
+  const series = [...before.reverse(), ...during].map((r) => r.readingNm);
+  let alert = before.length > 0 && driftAlertOf(series.slice(0, before.length), settings);
+  let raised = 0;
+  let cleared = 0;
+  for (let i = before.length; i < series.length; i++) {
+    const now = driftAlertOf(series.slice(Math.max(0, i + 1 - DRIFT_WINDOW), i + 1), settings);
+    if (now && !alert) raised++;
+    if (!now && alert) cleared++;
+    alert = now;
+  }
+  return { raised, cleared };
+}
+
+const mean = (values: number[]) => (values.length ? Math.round(values.reduce((a, v) => a + v, 0) / values.length) : null);
+/** How many first readings on each side of an adjustment show its effect. */
+const EFFECT_READINGS = 10;
+
+export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<QualityReport> {
+  const clock = localClock(zone);
+  const range = { start: clock.startOf(q.from), end: clock.startOf(nextDay(q.to)) };
+  const settings = await readDeskSettings(s.tenantId);
+  const [work, compareWork, stations] = await Promise.all([
+    repo.workRows(s, { ...q }),
+    q.compareFrom && q.compareTo ? repo.workRows(s, { from: q.compareFrom, to: q.compareTo, stationId: q.stationId, technicianId: q.technicianId }) : null,
+    repo.stationsOf(s),
+  ]);
+  const shown = stations.filter((st) => !q.stationId || st.id === q.stationId);
+  const byStation = [];
+  for (const st of shown) {
+    const rows = work.filter((r) => r.stationId === st.id);
+    const drift = await driftEpisodes(s, st.id, range, settings);
+    if (rows.length === 0 && drift.raised === 0 && drift.cleared === 0) continue;
+    byStation.push({ stationId: st.id, station: st.name, ...qualityOf(rows), driftAlertsRaised: drift.raised, driftAlertsCleared: drift.cleared });
+  }
+  const adjustments = await repo.adjustmentsIn(s, range, q.stationId);
+  const leveling = [];
+  for (const a of adjustments) {
+    const st = stations.find((x) => x.id === a.stationId);
+    const [before, after] = await Promise.all([repo.firstReadingsAround(s, a.stationId, a.at, 'before', EFFECT_READINGS), repo.firstReadingsAround(s, a.stationId, a.at, 'after', EFFECT_READINGS)]);
+    leveling.push({ stationId: a.stationId, station: st?.name ?? 'Removed station', at: a.at.toISOString(), amountMilli: a.amountMilli, unit: st?.adjustUnit ?? 'turns', meanBeforeNm: mean(before.map((r) => r.readingNm)), meanAfterNm: mean(after.map((r) => r.readingNm)) });
+  }
+  const wheels = (await repo.wheelsIn(s, range)).filter((w) => !q.stationId || w.stationId === q.stationId);
+  const [usage, events] = await Promise.all([repo.wheelDays(s, wheels.map((w) => w.id)), repo.wheelEventsOf(s, wheels.map((w) => w.id))]);
+  const wheelRows = wheels.map((w) => {
+    const days = usage.filter((u) => u.wheelId === w.id);
+    // Passes before each measured diameter, to the day: the summaries count passes per local day.
+    const passesBefore = (at: Date) => days.filter((d) => d.day < clock.of(at).day).reduce((n, d) => n + d.passes, 0);
+    const points = [{ passes: 0, diameterNm: w.diameterNewNm, at: w.mountedAt }, ...events.filter((e) => e.wheelId === w.id && e.kind === 'dressing' && e.diameterNm !== null).map((e) => ({ passes: passesBefore(e.at), diameterNm: e.diameterNm!, at: e.at }))];
+    const wear = wheelWear({ points, minDiameterNm: w.minDiameterNm, now: range.end });
+    return {
+      wheelId: w.id,
+      wheel: w.label,
+      station: stations.find((x) => x.id === w.stationId)?.name ?? 'Removed station',
+      mountedAt: w.mountedAt.toISOString(),
+      removedAt: w.removedAt?.toISOString() ?? null,
+      pairs: days.reduce((n, d) => n + d.pairs, 0),
+      passes: days.reduce((n, d) => n + d.passes, 0),
+      predictedPasses: wear.lastPasses !== null && wear.passesLeft !== null ? wear.lastPasses + wear.passesLeft : null,
+    };
+  });
+  return {
+    period: { from: q.from, to: q.to },
+    totals: qualityOf(work),
+    compare: compareWork && q.compareFrom && q.compareTo ? { period: { from: q.compareFrom, to: q.compareTo }, totals: qualityOf(compareWork) } : null,
+    tables: { byStation, leveling, wheels: wheelRows },
+  };
+}
+
+async function moneyTotals(s: Scope, period: Period, currency: string) {
+  const [money, credits] = await Promise.all([repo.moneyRows(s, period), repo.creditRows(s, period)]);
+  const credit = (kind: string) => credits.filter((c) => c.kind === kind);
+  return {
+    money,
+    credits,
+    totals: {
+      currency,
+      sales: money.reduce((n, r) => n + r.sales, 0),
+      salesMinor: money.reduce((n, r) => n + r.salesMinor, 0),
+      refundsMinor: money.reduce((n, r) => n + r.refundsMinor, 0),
+      feesMinor: money.reduce((n, r) => n + r.feesMinor, 0),
+      // Redemptions and expiries are negative entries; a reversal of one counts back against it.
+      redemptions: -credit('redeem').reduce((n, c) => n + c.credits, 0),
+      redemptionValueMinor: -credit('redeem').reduce((n, c) => n + c.valueMinor, 0),
+      breakageCredits: -credit('expire').reduce((n, c) => n + c.credits, 0),
+      breakageMinor: -credit('expire').reduce((n, c) => n + c.valueMinor, 0),
+    },
+  };
+}
+
+/** Monthly recurring value of a membership price: a yearly price counts a twelfth (rounded to the minor unit). */
+const monthly = (amountMinor: number, interval: string | null) => (interval === 'year' ? Math.round(amountMinor / 12) : amountMinor);
+
+export async function money(s: Scope, q: ReportQuery, zone: string, currency: string): Promise<MoneyReport> {
+  const clock = localClock(zone);
+  const start = clock.startOf(q.from);
+  const end = clock.startOf(nextDay(q.to));
+  const [current, compare, products, outstanding, memberships] = await Promise.all([
+    moneyTotals(s, q, currency),
+    q.compareFrom && q.compareTo ? moneyTotals(s, { from: q.compareFrom, to: q.compareTo }, currency) : null,
+    repo.productsOf(s),
+    repo.outstandingThrough(s, q.to),
+    repo.membershipsWithPrice(s),
+  ]);
+  // A canceled membership's last change is its cancellation.
+  const canceledAt = (m: (typeof memberships)[number]) => (m.state === 'canceled' ? m.updatedAt : null);
+  const liveAt = (m: (typeof memberships)[number], at: Date) => m.state !== 'incomplete' && m.createdAt < at && !(canceledAt(m) && canceledAt(m)! <= at);
+  const activeAtEnd = memberships.filter((m) => liveAt(m, end));
+  const activeAtStart = memberships.filter((m) => liveAt(m, start)).length;
+  const canceledInPeriod = memberships.filter((m) => {
+    const at = canceledAt(m);
+    return at !== null && at >= start && at < end;
+  }).length;
+  const names = new Map(products.map((p) => [p.id, p.name]));
+  const byProduct = new Map<string, MoneyReport['tables']['byProduct'][number]>();
+  for (const r of current.money) {
+    const k = `${r.productId}|${r.channel}`;
+    const row = byProduct.get(k) ?? { productId: r.productId, product: names.get(r.productId) ?? 'Removed product', channel: r.channel, sales: 0, salesMinor: 0, refunds: 0, refundsMinor: 0, feesMinor: 0 };
+    row.sales += r.sales;
+    row.salesMinor += r.salesMinor;
+    row.refunds += r.refunds;
+    row.refundsMinor += r.refundsMinor;
+    row.feesMinor += r.feesMinor;
+    byProduct.set(k, row);
+  }
+  const days = new Map<string, { salesMinor: number; refundsMinor: number; redemptions: number; breakageCredits: number }>();
+  for (let d = q.from; d <= q.to; d = nextDay(d)) days.set(d, { salesMinor: 0, refundsMinor: 0, redemptions: 0, breakageCredits: 0 });
+  for (const r of current.money) {
+    days.get(r.day)!.salesMinor += r.salesMinor;
+    days.get(r.day)!.refundsMinor += r.refundsMinor;
+  }
+  for (const c of current.credits) {
+    if (c.kind === 'redeem') days.get(c.day)!.redemptions -= c.credits;
+    if (c.kind === 'expire') days.get(c.day)!.breakageCredits -= c.credits;
+  }
+  return {
+    period: { from: q.from, to: q.to },
+    totals: current.totals,
+    compare: compare && q.compareFrom && q.compareTo ? { period: { from: q.compareFrom, to: q.compareTo }, totals: compare.totals } : null,
+    outstanding,
+    memberships: {
+      active: activeAtEnd.length,
+      monthlyRecurringMinor: activeAtEnd.reduce((n, m) => n + monthly(m.amountMinor, m.interval), 0),
+      canceledInPeriod,
+      churnRate: ratio(canceledInPeriod, activeAtStart),
+    },
+    tables: {
+      byProduct: [...byProduct.values()].sort((a, b) => a.product.localeCompare(b.product) || a.channel.localeCompare(b.channel)),
+      byDay: [...days].map(([day, v]) => ({ day, ...v })),
+    },
+  };
+}
+
+export async function leagues(s: Scope, q: ReportQuery, zone: string, managerUserId?: string): Promise<LeagueReport> {
+  const clock = localClock(zone);
+  const range = { start: clock.startOf(q.from), end: clock.startOf(nextDay(q.to)) };
+  const list = await repo.leaguesOf(s, managerUserId);
+  const usage = await repo.teamUsage(s, list.map((l) => l.id), range);
+  const name = new Map(list.map((l) => [l.id, l.name]));
+  return {
+    period: { from: q.from, to: q.to },
+    tables: { teams: usage.map((u) => ({ ...u, league: name.get(u.leagueId) ?? '' })).sort((a, b) => a.league.localeCompare(b.league) || a.team.localeCompare(b.team)) },
+  };
+}
+
+// ---- the rink's routes ----------------------------------------------------------------------------------------
+
+async function rinkOf(ctx: RinkContext) {
+  const rink = await reportScope(ctx.tenantId).rink();
+  if (!rink) throw AppError.notFound('No such rink');
+  return rink;
+}
+
+/** The filters' choices and the rink's today (its own time zone), for the report screens. */
+export async function reportOptions(ctx: RinkContext) {
+  const s = reportScope(ctx.tenantId);
+  const rink = await rinkOf(ctx);
+  const [stations, people] = await Promise.all([repo.stationsOf(s), repo.techniciansOf(s)]);
+  return {
+    timeZone: rink.timeZone,
+    currency: rink.currency,
+    today: localClock(rink.timeZone).of(new Date()).day,
+    stations: stations.map((st) => ({ id: st.id, name: st.name })),
+    technicians: people.filter((p) => p.role !== 'league_manager').map((p) => ({ id: p.id, name: p.name })),
+  };
+}
+
+/** A league manager sees only the league report, and only their leagues; everyone else with report access sees all. */
+export async function rinkReport(ctx: RinkContext, report: ReportName, q: ReportQuery) {
+  if (report !== 'leagues' && ctx.role === 'league_manager') throw AppError.notFound('No such report');
+  await refreshReports(ctx.tenantId);
+  const rink = await rinkOf(ctx);
+  const s = reportScope(ctx.tenantId);
+  if (report === 'throughput') return throughput(s, q);
+  if (report === 'quality') return quality(s, q, rink.timeZone);
+  if (report === 'money') return money(s, q, rink.timeZone, rink.currency);
+  return leagues(s, q, rink.timeZone, ctx.role === 'league_manager' ? ctx.userId : undefined);
+}
+
+const NM_PER_THOU = 25_400;
+const NM_PER_MM = 1_000_000;
+
+/**
+ * One table of a report as CSV, with the screen's column labels as its header row. Money is written in the
+ * currency's major unit and readings in the rink's unit, so a spreadsheet shows what the screen shows.
+ */
+export function tableCsv(report: ReportName, table: string, answer: { tables: Record<string, Record<string, unknown>[]> }, rink: { currency: string; unitPreference: 'in' | 'mm' }): string {
+  const columns = reportColumns(report, table);
+  const rows = answer.tables[table];
+  if (!columns || !rows) throw AppError.notFound('No such table in this report');
+  const digits = new Intl.NumberFormat('en', { style: 'currency', currency: rink.currency }).resolvedOptions().maximumFractionDigits ?? 2;
+  const cell = (format: string, value: unknown) => {
+    if (typeof value !== 'number') return value ?? '';
+    if (format === 'share') return value.toFixed(4);
+    if (format === 'minor') return (value / 10 ** digits).toFixed(digits);
+    if (format === 'nm') return rink.unitPreference === 'in' ? (value / NM_PER_THOU).toFixed(2) : (value / NM_PER_MM).toFixed(4);
+    return value;
+  };
+  const label = (c: { label: string; format: string }) => (c.format === 'minor' ? `${c.label} (${rink.currency})` : c.format === 'nm' ? `${c.label} (${rink.unitPreference === 'in' ? 'thou' : 'mm'})` : c.label);
+  return stringify(
+    rows.map((r) => columns.map((c) => cell(c.format, r[c.key]))),
+    { header: true, columns: columns.map(label) },
+  );
+}

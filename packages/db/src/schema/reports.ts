@@ -1,0 +1,94 @@
+import { bigint, date, int, mysqlTable, primaryKey, smallint, varchar } from 'drizzle-orm/mysql-core';
+import { at, rinkFk, tenantId } from './columns';
+
+// Summary tables the reports read instead of the raw rows. Each is keyed by the rink's local day (its time
+// zone), so a date-range filter is an index range. They are derived data: the refresh recomputes whole days
+// from the raw rows, so a summary row can always be thrown away and rebuilt. "" stands for "none" in a key
+// column (a primary key cannot hold NULL).
+
+/** Pairs and their first readings, per local hour, station, technician and wheel. */
+export const reportWorkHour = mysqlTable(
+  'report_work_hour',
+  {
+    tenantId: tenantId(),
+    day: date('day', { mode: 'string' }).notNull(),
+    hour: smallint('hour').notNull(),
+    stationId: varchar('station_id', { length: 36 }).notNull(),
+    technicianId: varchar('technician_id', { length: 36 }).notNull(),
+    wheelId: varchar('wheel_id', { length: 36 }).notNull(),
+    pairs: int('pairs').notNull(),
+    /** Passes over the wheel, for the wheel's life. */
+    passes: int('passes').notNull(),
+    /** Blades with a first reading, and how those first readings fell in the station's bands. */
+    firstReadings: int('first_readings').notNull(),
+    firstTrue: int('first_true').notNull(),
+    firstFair: int('first_fair').notNull(),
+    firstOff: int('first_off').notNull(),
+    /** Blades read a second time (a re-run). */
+    reruns: int('reruns').notNull(),
+    /** Σ |first reading| in nm, for the mean absolute reading. */
+    firstAbsNm: bigint('first_abs_nm', { mode: 'number' }).notNull(),
+  },
+  (t) => [primaryKey({ name: 'report_work_hour_pk', columns: [t.tenantId, t.day, t.hour, t.stationId, t.technicianId, t.wheelId] }), rinkFk('report_work_hour_rink_fk', t.tenantId)],
+);
+
+/** Tickets that became ready, per local day of readiness, station and turnaround bucket. */
+export const reportTurnaround = mysqlTable(
+  'report_turnaround',
+  {
+    tenantId: tenantId(),
+    day: date('day', { mode: 'string' }).notNull(),
+    stationId: varchar('station_id', { length: 36 }).notNull(),
+    /** Minutes from drop-off to ready, in buckets of TURNAROUND_BUCKET_MINUTES; the last bucket holds the rest. */
+    bucket: smallint('bucket').notNull(),
+    tickets: int('tickets').notNull(),
+    /** Of those, ready by the time promised at drop-off. */
+    onTime: int('on_time').notNull(),
+  },
+  (t) => [primaryKey({ name: 'report_turnaround_pk', columns: [t.tenantId, t.day, t.stationId, t.bucket] }), rinkFk('report_turnaround_rink_fk', t.tenantId)],
+);
+
+/** Payments (on their paid day) and refunds (on theirs), per product and channel, in the rink's currency. */
+export const reportMoneyDay = mysqlTable(
+  'report_money_day',
+  {
+    tenantId: tenantId(),
+    day: date('day', { mode: 'string' }).notNull(),
+    productId: varchar('product_id', { length: 36 }).notNull(),
+    channel: varchar('channel', { length: 16 }).notNull(),
+    sales: int('sales').notNull(),
+    salesMinor: bigint('sales_minor', { mode: 'number' }).notNull(),
+    feesMinor: bigint('fees_minor', { mode: 'number' }).notNull(),
+    refunds: int('refunds').notNull(),
+    refundsMinor: bigint('refunds_minor', { mode: 'number' }).notNull(),
+  },
+  (t) => [primaryKey({ name: 'report_money_day_pk', columns: [t.tenantId, t.day, t.productId, t.channel] }), rinkFk('report_money_day_rink_fk', t.tenantId)],
+);
+
+/**
+ * Ledger entries per local day, kind and product. A reversal is counted under the kind it reverses (with its own
+ * sign), so Σ redeem is the net redemptions. Σ credits over every day up to D is the balance outstanding at D.
+ */
+export const reportCreditDay = mysqlTable(
+  'report_credit_day',
+  {
+    tenantId: tenantId(),
+    day: date('day', { mode: 'string' }).notNull(),
+    kind: varchar('kind', { length: 16 }).notNull(),
+    productId: varchar('product_id', { length: 36 }).notNull(),
+    credits: bigint('credits', { mode: 'number' }).notNull(),
+    valueMinor: bigint('value_minor', { mode: 'number' }).notNull(),
+  },
+  (t) => [primaryKey({ name: 'report_credit_day_pk', columns: [t.tenantId, t.day, t.kind, t.productId] }), rinkFk('report_credit_day_rink_fk', t.tenantId)],
+);
+
+/** How far each rink's summaries are current: rows written before `through` are in them. */
+export const reportRefresh = mysqlTable(
+  'report_refresh',
+  {
+    tenantId: tenantId().primaryKey(),
+    through: at('through').notNull(),
+    refreshedAt: at('refreshed_at').notNull(),
+  },
+  (t) => [rinkFk('report_refresh_rink_fk', t.tenantId)],
+);

@@ -1,0 +1,175 @@
+import { eq } from 'drizzle-orm';
+import { levelReading, ticket } from '@rinkwright/db';
+import { currentDb } from '@rinkwright/db/unscoped';
+import { createSharpening, createStation, createTicket } from '@rinkwright/db/testing';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { refreshReports } from '../../apps/api/src/features/reports/refresh';
+import { buildTestApp, type Client } from '../support/app';
+import { addProduct, redeemPath } from '../support/billing';
+import { createDesk, logPair, takeIn, write, type Desk } from '../support/desk';
+import { createCustomerAt, PASSWORD, uniqueEmail } from '../support/world';
+
+// The reports against figures worked by hand from a small fixed dataset. The rink is in America/Toronto
+// (UTC−5 in November), so a pair done at 23:30 local on 3 November is 04:30 UTC on the 4th and must count
+// on the 3rd. Bands are the defaults: true ≤ 25,400 nm (0.001"), fair ≤ 50,800 nm, off beyond.
+
+const api = buildTestApp();
+let desk: Desk;
+let manager: Client;
+let stationB: { id: string; name: string };
+const local = (iso: string) => new Date(`${iso}-05:00`);
+
+beforeAll(async () => {
+  desk = await createDesk('Report Rink');
+  manager = await api.signIn(desk.world.staff.manager.email, PASSWORD);
+  const db = currentDb();
+  stationB = await createStation(db, desk.world.id, { name: 'Station Two' });
+  const t1 = desk.world.staff.technician.id;
+  const t2 = desk.world.staff.manager.id;
+  const base = { customerId: desk.skater.id, serviceId: desk.service.id, createdBy: t1 };
+  const tickets = [
+    // dropped, ready (local): 55 min late, 20 min on time, 45 min late (promised 30 min after drop-off)
+    { n: 9001, dropped: '2026-11-02T08:50:00', ready: '2026-11-02T09:45:00', station: desk.station.id },
+    { n: 9002, dropped: '2026-11-02T13:50:00', ready: '2026-11-02T14:10:00', station: stationB.id },
+    { n: 9003, dropped: '2026-11-03T23:00:00', ready: '2026-11-03T23:45:00', station: stationB.id },
+    // Outside the period: must not count.
+    { n: 9004, dropped: '2026-10-31T10:00:00', ready: '2026-10-31T10:20:00', station: desk.station.id },
+  ];
+  const made = [];
+  for (const t of tickets) {
+    const created = await createTicket(db, desk.world.id, { ...base, number: t.n, pairs: 2, droppedAt: local(t.dropped), stationId: t.station });
+    await db.update(ticket).set({ state: 'ready', readyAt: local(t.ready) }).where(eq(ticket.id, created.id));
+    made.push(created);
+  }
+  const [a, b, c, d] = made as [(typeof made)[0], (typeof made)[0], (typeof made)[0], (typeof made)[0]];
+  await createSharpening(db, desk.world.id, { ticketId: a.id, pairId: a.pairIds[0]!, stationId: desk.station.id, technicianId: t1, passes: 4, readingsNm: [0, 38_100], doneAt: local('2026-11-02T09:10:00') });
+  const rerun = await createSharpening(db, desk.world.id, { ticketId: a.id, pairId: a.pairIds[1]!, stationId: desk.station.id, technicianId: t1, passes: 5, readingsNm: [-12_700, 63_500], doneAt: local('2026-11-02T09:40:00') });
+  await createSharpening(db, desk.world.id, { ticketId: b.id, pairId: b.pairIds[0]!, stationId: stationB.id, technicianId: t2, passes: 3, readingsNm: [20_000, -30_000], doneAt: local('2026-11-02T14:05:00') });
+  await createSharpening(db, desk.world.id, { ticketId: c.id, pairId: c.pairIds[0]!, stationId: stationB.id, technicianId: t1, passes: 4, readingsNm: [10_000, 10_000], doneAt: local('2026-11-03T23:30:00') });
+  await createSharpening(db, desk.world.id, { ticketId: d.id, pairId: d.pairIds[0]!, stationId: desk.station.id, technicianId: t1, passes: 4, readingsNm: [0, 0], doneAt: local('2026-10-31T10:10:00') });
+  // The off right blade of the second pair is run again: one re-run.
+  await db.insert(levelReading).values({ id: crypto.randomUUID(), tenantId: desk.world.id, stationId: desk.station.id, sharpeningId: rerun.id, kind: 'sharpening', blade: 'right', attempt: 2, readingNm: 5_000, takenAt: local('2026-11-02T09:42:00'), takenBy: t1 });
+});
+
+const period = 'from=2026-11-02&to=2026-11-03';
+
+describe('throughput', () => {
+  it('counts pairs, staffed hours, turnaround and promised times by the rink’s local days', async () => {
+    const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput?${period}`);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    // 4 pairs; staffed hours are the distinct (day, hour, technician): (2nd 09h T1), (2nd 14h T2), (3rd 23h T1) = 3.
+    // Turnarounds 55, 20, 45 min → 15-minute buckets 3, 1, 3; the median (2nd of 3) and the 90th percentile
+    // (3rd of 3) are in bucket 3, reported by its upper end, 60 min. One of three was ready by its promise.
+    expect(res.body.totals).toEqual({ pairs: 4, staffedHours: 3, pairsPerStaffedHour: 1.33, ticketsReady: 3, medianTurnaroundMinutes: 60, p90TurnaroundMinutes: 60, promisedHitRate: 1 / 3 });
+    expect(res.body.tables.byStation).toEqual([
+      { stationId: desk.station.id, station: 'Station One', pairs: 2, staffedHours: 1, pairsPerStaffedHour: 2 },
+      { stationId: stationB.id, station: 'Station Two', pairs: 2, staffedHours: 2, pairsPerStaffedHour: 1 },
+    ]);
+    expect(res.body.tables.byTechnician.map((t: { technicianId: string; pairs: number; staffedHours: number }) => [t.technicianId, t.pairs, t.staffedHours]).sort()).toEqual(
+      [
+        [desk.world.staff.technician.id, 3, 2],
+        [desk.world.staff.manager.id, 1, 1],
+      ].sort(),
+    );
+    // 2 November 2026 is a Monday (ISO weekday 1), the 3rd a Tuesday.
+    expect(res.body.tables.byHour).toEqual([
+      { weekday: 1, hour: 9, pairs: 2 },
+      { weekday: 1, hour: 14, pairs: 1 },
+      { weekday: 2, hour: 23, pairs: 1 },
+    ]);
+    expect(res.body.tables.byDay).toEqual([
+      { day: '2026-11-02', pairs: 3, ticketsReady: 2, onTime: 1 },
+      { day: '2026-11-03', pairs: 1, ticketsReady: 1, onTime: 0 },
+    ]);
+  });
+
+  it('narrows to a station and a technician, and compares with another period', async () => {
+    const one = await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput?${period}&stationId=${stationB.id}&technicianId=${desk.world.staff.technician.id}&compareFrom=2026-10-31&compareTo=2026-11-01`);
+    expect(one.body.totals).toMatchObject({ pairs: 1, staffedHours: 1, ticketsReady: 2 });
+    expect(one.body.compare).toEqual({ period: { from: '2026-10-31', to: '2026-11-01' }, totals: expect.objectContaining({ pairs: 0, ticketsReady: 0 }) });
+    const other = await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput?from=2026-10-31&to=2026-11-01`);
+    expect(other.body.totals).toMatchObject({ pairs: 1, ticketsReady: 1, promisedHitRate: 1, medianTurnaroundMinutes: 30 });
+  });
+
+  it('exports each table as CSV with the screen’s column labels', async () => {
+    const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput/byStation.csv?${period}`);
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toMatch(/^text\/csv/);
+    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?[\w-]+-throughput-byStation-2026-11-02-to-2026-11-03\.csv"?$/);
+    expect(res.text.trim().split('\n')).toEqual(['Station,Pairs,Staffed hours,Pairs per staffed hour', 'Station One,2,1,2', 'Station Two,2,2,1']);
+    expect((await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput/nothing.csv?${period}`)).status).toBe(404);
+  });
+});
+
+describe('quality', () => {
+  it('shares the first readings among the bands and counts re-runs', async () => {
+    const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/quality?${period}`);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    // First readings 0, 38,100, −12,700, 63,500, 20,000, −30,000, 10,000, 10,000: true 5, fair 2, off 1;
+    // one re-run of 8; mean |reading| = 184,300 / 8 = 23,037.5 → 23,038 nm.
+    expect(res.body.totals).toEqual({ firstReadings: 8, trueShare: 5 / 8, fairShare: 2 / 8, offShare: 1 / 8, reRunRate: 1 / 8, meanAbsReadingNm: 23_038 });
+    const one = res.body.tables.byStation.find((r: { stationId: string }) => r.stationId === desk.station.id);
+    // Station One: 0 and −12,700 true, 38,100 fair, 63,500 off; mean (0 + 38,100 + 12,700 + 63,500) / 4 = 28,575.
+    expect(one).toMatchObject({ firstReadings: 4, trueShare: 0.5, fairShare: 0.25, offShare: 0.25, reRunRate: 0.25, meanAbsReadingNm: 28_575 });
+  });
+});
+
+describe('money and the summaries kept current', () => {
+  it('shows a sale, a redemption and a refund made a moment ago, and the credits left', async () => {
+    const technician = await api.signIn(desk.world.staff.technician.email, PASSWORD);
+    const today = (await manager.get(`/api/rinks/${desk.world.slug}/reports`)).body.today as string;
+    const before = await manager.get(`/api/rinks/${desk.world.slug}/reports/money?from=${today}&to=${today}`);
+    expect(before.body.totals).toMatchObject({ sales: 0, salesMinor: 0 });
+
+    // Hand-worked as in the billing test: 3 credits for 49.99; one redeemed is worth 16.66, the refund of the
+    // other two 33.33.
+    const odd = await addProduct(manager, desk.world, { kind: 'punch_card', name: 'Three sharpenings', credits: 3, priceMinor: 4999, monthsValid: 6, listed: true });
+    const skater = await createCustomerAt(desk.world.id, { name: 'Report Skater', email: uniqueEmail('report') });
+    const sold = await write(technician, `/api/rinks/${desk.world.slug}/customers/${skater.id}/sales`, { productId: odd.id, paymentMethodId: 'cash' });
+    expect(sold.status).toBe(201);
+    await write(technician, redeemPath(desk.world, skater.id), {});
+    const mid = await manager.get(`/api/rinks/${desk.world.slug}/reports/money?from=${today}&to=${today}`);
+    expect(mid.body.outstanding).toEqual({ credits: 2, valueMinor: 3333 });
+    await write(manager, `/api/rinks/${desk.world.slug}/payments/${sold.body.payment.id}/refunds`, { reason: 'Moving away' });
+
+    const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/money?from=${today}&to=${today}`);
+    expect(res.body.totals).toEqual({ currency: 'CAD', sales: 1, salesMinor: 4999, refundsMinor: 3333, feesMinor: 0, redemptions: 1, redemptionValueMinor: 1666, breakageCredits: 0, breakageMinor: 0 });
+    expect(res.body.outstanding).toEqual({ credits: 0, valueMinor: 0 });
+    expect(res.body.tables.byProduct).toEqual([{ productId: odd.id, product: 'Three sharpenings', channel: 'counter', sales: 1, salesMinor: 4999, refunds: 1, refundsMinor: 3333, feesMinor: 0 }]);
+    const csv = await manager.get(`/api/rinks/${desk.world.slug}/reports/money/byProduct.csv?from=${today}&to=${today}`);
+    expect(csv.text.trim().split('\n')[1]).toBe('Three sharpenings,counter,1,49.99,1,33.33,0.00');
+  });
+
+  it('counts a pair logged through the counter in the next report, once however often the summaries refresh', async () => {
+    const technician = await api.signIn(desk.world.staff.technician.email, PASSWORD);
+    const today = (await manager.get(`/api/rinks/${desk.world.slug}/reports`)).body.today as string;
+    const taken = await takeIn(technician, desk);
+    await logPair(technician, desk, taken.id, taken.pairs[0]!.id);
+    await refreshReports(desk.world.id);
+    await refreshReports(desk.world.id);
+    const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput?from=${today}&to=${today}`);
+    expect(res.body.totals.pairs).toBe(1);
+    // A full rebuild gives the same figures as the refreshes that came before it.
+    await refreshReports(desk.world.id, { full: true });
+    expect((await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput?${period}`)).body.totals.pairs).toBe(4);
+  });
+});
+
+describe('filters and access', () => {
+  it('answers bad filters with a 400 naming the field', async () => {
+    const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput?from=2026-11-05&to=2026-11-01`);
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields).toHaveProperty(['query.to']);
+    const half = await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput?${period}&compareFrom=2026-10-01`);
+    expect(res.status).toBe(400);
+    expect(Object.keys(half.body.error.fields)).toEqual(['query.compareTo']);
+  });
+
+  it('shows a league manager only league usage, and a technician no report', async () => {
+    const leagueManager = await api.signIn(desk.world.staff.league_manager.email, PASSWORD);
+    expect((await leagueManager.get(`/api/rinks/${desk.world.slug}/reports/throughput?${period}`)).status).toBe(404);
+    expect((await leagueManager.get(`/api/rinks/${desk.world.slug}/reports/leagues?${period}`)).status).toBe(200);
+    const technician = await api.signIn(desk.world.staff.technician.email, PASSWORD);
+    expect((await technician.get(`/api/rinks/${desk.world.slug}/reports/leagues?${period}`)).status).toBe(403);
+  });
+});
