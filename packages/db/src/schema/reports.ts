@@ -82,6 +82,22 @@ export const reportCreditDay = mysqlTable(
   (t) => [primaryKey({ name: 'report_credit_day_pk', columns: [t.tenantId, t.day, t.kind, t.productId] }), rinkFk('report_credit_day_rink_fk', t.tenantId)],
 );
 
+/**
+ * Drift alerts per local day and station: how many began and how many ended, the drift watch evaluated after each
+ * reading of the station's series (its check readings and first readings), as the refresh saw it.
+ */
+export const reportDriftDay = mysqlTable(
+  'report_drift_day',
+  {
+    tenantId: tenantId(),
+    day: date('day', { mode: 'string' }).notNull(),
+    stationId: varchar('station_id', { length: 36 }).notNull(),
+    raised: int('raised').notNull(),
+    cleared: int('cleared').notNull(),
+  },
+  (t) => [primaryKey({ name: 'report_drift_day_pk', columns: [t.tenantId, t.day, t.stationId] }), rinkFk('report_drift_day_rink_fk', t.tenantId)],
+);
+
 /** How far each rink's summaries are current: rows written before `through` are in them. */
 export const reportRefresh = mysqlTable(
   'report_refresh',

@@ -1,6 +1,7 @@
 import { bandsFor, classifyLevel, TURNAROUND_BUCKET_MINUTES, TURNAROUND_LAST_BUCKET, type LevelBands } from '@rinkwright/core';
 import { scoped, type Scope } from '@rinkwright/db';
 import { readDeskSettings } from '../../lib/desk-settings';
+import { driftAlertOf, DRIFT_WINDOW } from '../../lib/drift';
 import { consecutiveRuns, localClock, nextDay, type LocalClock } from './local-time';
 import * as repo from './repository';
 
@@ -23,6 +24,7 @@ export interface RefreshResult {
 /** Brings the rink's summaries up to now. `full` recomputes every day the rink has data for. */
 export async function refreshReports(tenantId: string, options: { full?: boolean } = {}): Promise<RefreshResult> {
   const settings = await readDeskSettings(tenantId);
+  const drift = (values: number[]) => driftAlertOf(values, settings);
   return scoped(tenantId).transaction(async (s) => {
     const through = await repo.lockWatermark(s);
     // Taken after the lock: everything written before this moment is in the summaries when the refresh ends.
@@ -42,7 +44,8 @@ export async function refreshReports(tenantId: string, options: { full?: boolean
     }
     const stations = new Map((await repo.stationsOf(s)).map((st) => [st.id, bandsFor({ rink: settings, station: st, precision: st.precision })]));
     let days = 0;
-    for (const run of runs) days += await rebuildDays(s, clock, run, (stationId) => stations.get(stationId) ?? bandsFor({ rink: settings, station: null, precision: false }));
+    const bandsOf = (stationId: string) => stations.get(stationId) ?? bandsFor({ rink: settings, station: null, precision: false });
+    for (const run of runs) days += await rebuildDays(s, clock, run, bandsOf, drift);
     // A full rebuild also clears summaries of days that no longer have any data.
     if (full) await repo.clearOutside(s, runs[0] ?? null);
     await repo.saveWatermark(s, now);
@@ -52,7 +55,7 @@ export async function refreshReports(tenantId: string, options: { full?: boolean
 
 const key = (...parts: (string | number | null)[]) => parts.map((p) => p ?? '').join('|');
 
-async function rebuildDays(s: Scope, clock: LocalClock, run: { first: string; last: string }, bandsOf: (stationId: string) => LevelBands): Promise<number> {
+async function rebuildDays(s: Scope, clock: LocalClock, run: { first: string; last: string }, bandsOf: (stationId: string) => LevelBands, drift: (values: number[]) => boolean): Promise<number> {
   const range = { start: clock.startOf(run.first), end: clock.startOf(nextDay(run.last)) };
   const [sharpenings, readings, tickets, paid, refunds, entries] = await Promise.all([
     repo.sharpeningsIn(s, range),
@@ -140,6 +143,33 @@ async function rebuildDays(s: Scope, clock: LocalClock, run: { first: string; la
     credit.set(k, row);
   }
 
-  await repo.replaceDays(s, run, { work: [...work.values()], turnaround: [...turnaround.values()], money: [...money.values()], credit: [...credit.values()] });
+  const driftDays: repo.DriftDayRow[] = [];
+  for (const stationId of await repo.stationsWithSeriesIn(s, range)) driftDays.push(...(await driftTransitions(s, clock, stationId, range, drift)));
+
+  await repo.replaceDays(s, run, { work: [...work.values()], turnaround: [...turnaround.values()], money: [...money.values()], credit: [...credit.values()], drift: driftDays });
   return Math.round((range.end.getTime() - range.start.getTime()) / 86_400_000);
+}
+
+/**
+ * The drift watch after each reading of a station's series in the range, over the window of readings ending
+ * there: a change from no alert to alert is one raised, back again one cleared, on the reading's local day.
+ */
+async function driftTransitions(s: Scope, clock: LocalClock, stationId: string, range: repo.Range, drift: (values: number[]) => boolean): Promise<repo.DriftDayRow[]> {
+  const [before, during] = await Promise.all([repo.seriesBefore(s, stationId, range.start, DRIFT_WINDOW), repo.seriesIn(s, stationId, range)]);
+  const series = [...before.reverse(), ...during];
+  const values = series.map((r) => r.readingNm);
+  let alert = before.length > 0 && drift(values.slice(0, before.length));
+  const days = new Map<string, repo.DriftDayRow>();
+  for (let i = before.length; i < series.length; i++) {
+    const now = drift(values.slice(Math.max(0, i + 1 - DRIFT_WINDOW), i + 1));
+    if (now !== alert) {
+      const day = clock.of(series[i]!.takenAt).day;
+      const row = days.get(day) ?? { day, stationId, raised: 0, cleared: 0 };
+      if (now) row.raised += 1;
+      else row.cleared += 1;
+      days.set(day, row);
+    }
+    alert = now;
+  }
+  return [...days.values()];
 }

@@ -14,6 +14,7 @@ import {
   productPrice,
   refund,
   reportCreditDay,
+  reportDriftDay,
   reportMoneyDay,
   reportRefresh,
   reportTurnaround,
@@ -56,13 +57,15 @@ export const saveWatermark = (s: Scope, through: Date) => s.update(reportRefresh
 // ---- what changed since the watermark (business times of the rows written since) -------------------------------
 
 export async function changedInstants(s: Scope, since: Date): Promise<Date[]> {
-  const [sharpened, read, events, entries, paid, refunded] = await Promise.all([
+  const [sharpened, read, checks, events, entries, paid, refunded] = await Promise.all([
     s.findJoined(sharpening, { fields: { at: sharpening.doneAt }, joins: [], where: gte(sharpening.createdAt, since) }),
     s.findJoined(levelReading, {
       fields: { at: sharpening.doneAt },
       joins: [{ table: sharpening, on: eq(sharpening.id, levelReading.sharpeningId) }],
       where: gte(levelReading.takenAt, since),
     }),
+    // Check readings belong to no sharpening: they count on their own day, in the drift watch.
+    s.findJoined(levelReading, { fields: { at: levelReading.takenAt }, joins: [], where: and(gte(levelReading.takenAt, since), eq(levelReading.kind, 'check')) }),
     s.findJoined(ticketEvent, {
       fields: { at: ticketEvent.at, readyAt: ticket.readyAt },
       joins: [{ table: ticket, on: eq(ticket.id, ticketEvent.ticketId) }],
@@ -73,7 +76,7 @@ export async function changedInstants(s: Scope, since: Date): Promise<Date[]> {
     s.findJoined(refund, { fields: { at: refund.createdAt }, joins: [], where: gte(refund.createdAt, since) }),
   ]);
   const instants: Date[] = [];
-  for (const list of [sharpened, read, entries, paid, refunded]) for (const r of list) if (r.at) instants.push(r.at);
+  for (const list of [sharpened, read, checks, entries, paid, refunded]) for (const r of list) if (r.at) instants.push(r.at);
   for (const e of events) {
     instants.push(e.at);
     if (e.readyAt) instants.push(e.readyAt);
@@ -153,17 +156,19 @@ export type WorkHourRow = Omit<typeof reportWorkHour.$inferInsert, 'tenantId'>;
 export type TurnaroundRow = Omit<typeof reportTurnaround.$inferInsert, 'tenantId'>;
 export type MoneyDayRow = Omit<typeof reportMoneyDay.$inferInsert, 'tenantId'>;
 export type CreditDayRow = Omit<typeof reportCreditDay.$inferInsert, 'tenantId'>;
+export type DriftDayRow = Omit<typeof reportDriftDay.$inferInsert, 'tenantId'>;
 
 export async function replaceDays(
   s: Scope,
   days: { first: string; last: string },
-  rows: { work: WorkHourRow[]; turnaround: TurnaroundRow[]; money: MoneyDayRow[]; credit: CreditDayRow[] },
+  rows: { work: WorkHourRow[]; turnaround: TurnaroundRow[]; money: MoneyDayRow[]; credit: CreditDayRow[]; drift: DriftDayRow[] },
 ): Promise<void> {
   const tables = [
     [reportWorkHour, rows.work],
     [reportTurnaround, rows.turnaround],
     [reportMoneyDay, rows.money],
     [reportCreditDay, rows.credit],
+    [reportDriftDay, rows.drift],
   ] as const;
   for (const [table, list] of tables) {
     await s.remove(table, sql`${table.day} >= ${days.first} and ${table.day} <= ${days.last}`);
@@ -173,7 +178,7 @@ export async function replaceDays(
 
 /** Removes summary rows outside a span of days (all of them without one): a full rebuild leaves nothing stale. */
 export async function clearOutside(s: Scope, span: { first: string; last: string } | null): Promise<void> {
-  for (const table of [reportWorkHour, reportTurnaround, reportMoneyDay, reportCreditDay]) {
+  for (const table of [reportWorkHour, reportTurnaround, reportMoneyDay, reportCreditDay, reportDriftDay]) {
     await s.remove(table, span ? sql`(${table.day} < ${span.first} or ${table.day} > ${span.last})` : sql`1 = 1`);
   }
 }
@@ -266,6 +271,20 @@ export async function creditRows(s: Scope, f: SummaryFilter) {
   });
   return rows.map((r) => ({ day: r.day, kind: r.kind, credits: n(r.credits), valueMinor: n(r.valueMinor) }));
 }
+
+export async function driftRows(s: Scope, f: SummaryFilter) {
+  const rows = await s.findJoined(reportDriftDay, {
+    fields: { stationId: reportDriftDay.stationId, raised: sum(reportDriftDay.raised), cleared: sum(reportDriftDay.cleared) },
+    joins: [],
+    where: and(dayIn(reportDriftDay.day, f), f.stationId ? eq(reportDriftDay.stationId, f.stationId) : undefined),
+    groupBy: [reportDriftDay.stationId],
+  });
+  return new Map(rows.map((r) => [r.stationId, { raised: n(r.raised), cleared: n(r.cleared) }]));
+}
+
+/** Stations with readings of the drift watch's series in a range. */
+export const stationsWithSeriesIn = async (s: Scope, r: Range) =>
+  (await s.findJoined(levelReading, { fields: { stationId: levelReading.stationId }, joins: [], where: inRange(levelReading.takenAt, r), groupBy: [levelReading.stationId] })).map((x) => x.stationId);
 
 /** Σ of every entry up to and including a day: the credits outstanding then and their value. */
 export async function outstandingThrough(s: Scope, day: string) {

@@ -14,8 +14,6 @@ import {
 import { reportScope, type Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
-import { readDeskSettings } from '../../lib/desk-settings';
-import { driftAlertOf, DRIFT_WINDOW } from '../../lib/drift';
 import { localClock, nextDay, weekdayOf } from './local-time';
 import { refreshReports } from './refresh';
 import * as repo from './repository';
@@ -83,7 +81,11 @@ export async function throughput(s: Scope, q: ReportQuery): Promise<ThroughputRe
   const personName = new Map(people.map((p) => [p.id, p.name]));
   const group = <K extends 'stationId' | 'technicianId'>(field: K) => {
     const groups = new Map<string, typeof current.work>();
-    for (const r of current.work) groups.set(r[field], [...(groups.get(r[field]) ?? []), r]);
+    for (const r of current.work) {
+      const list = groups.get(r[field]);
+      if (list) list.push(r);
+      else groups.set(r[field], [r]);
+    }
     return [...groups].map(([id, rows]) => {
       const pairs = rows.reduce((n, r) => n + r.pairs, 0);
       const hours = staffedHours(rows);
@@ -99,7 +101,12 @@ export async function throughput(s: Scope, q: ReportQuery): Promise<ThroughputRe
     day.onTime += r.onTime;
   }
   const heat = new Map<string, number>();
-  for (const r of current.work) heat.set(`${weekdayOf(r.day)}|${r.hour}`, (heat.get(`${weekdayOf(r.day)}|${r.hour}`) ?? 0) + r.pairs);
+  const weekdays = new Map<string, number>();
+  for (const r of current.work) {
+    const weekday = weekdays.get(r.day) ?? weekdayOf(r.day);
+    weekdays.set(r.day, weekday);
+    heat.set(`${weekday}|${r.hour}`, (heat.get(`${weekday}|${r.hour}`) ?? 0) + r.pairs);
+  }
   return {
     period: { from: q.from, to: q.to },
     totals: current.totals,
@@ -141,22 +148,6 @@ function qualityOf(rows: { firstReadings: number; firstTrue: number; firstFair: 
   };
 }
 
-/** Drift alerts that began and ended in the period: the drift watch evaluated after each reading of the series. */
-async function driftEpisodes(s: Scope, stationId: string, range: repo.Range, settings: Awaited<ReturnType<typeof readDeskSettings>>) {
-  const [before, during] = await Promise.all([repo.seriesBefore(s, stationId, range.start, DRIFT_WINDOW), repo.seriesIn(s, stationId, range)]);
-  const series = [...before.reverse(), ...during].map((r) => r.readingNm);
-  let alert = before.length > 0 && driftAlertOf(series.slice(0, before.length), settings);
-  let raised = 0;
-  let cleared = 0;
-  for (let i = before.length; i < series.length; i++) {
-    const now = driftAlertOf(series.slice(Math.max(0, i + 1 - DRIFT_WINDOW), i + 1), settings);
-    if (now && !alert) raised++;
-    if (!now && alert) cleared++;
-    alert = now;
-  }
-  return { raised, cleared };
-}
-
 const mean = (values: number[]) => (values.length ? Math.round(values.reduce((a, v) => a + v, 0) / values.length) : null);
 /** How many first readings on each side of an adjustment show its effect. */
 const EFFECT_READINGS = 10;
@@ -164,19 +155,19 @@ const EFFECT_READINGS = 10;
 export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<QualityReport> {
   const clock = localClock(zone);
   const range = { start: clock.startOf(q.from), end: clock.startOf(nextDay(q.to)) };
-  const settings = await readDeskSettings(s.tenantId);
-  const [work, compareWork, stations] = await Promise.all([
-    repo.workRows(s, { ...q }),
+  const [work, compareWork, stations, drift] = await Promise.all([
+    repo.workRows(s, { from: q.from, to: q.to, stationId: q.stationId, technicianId: q.technicianId }),
     q.compareFrom && q.compareTo ? repo.workRows(s, { from: q.compareFrom, to: q.compareTo, stationId: q.stationId, technicianId: q.technicianId }) : null,
     repo.stationsOf(s),
+    repo.driftRows(s, { from: q.from, to: q.to, stationId: q.stationId }),
   ]);
   const shown = stations.filter((st) => !q.stationId || st.id === q.stationId);
   const byStation = [];
   for (const st of shown) {
     const rows = work.filter((r) => r.stationId === st.id);
-    const drift = await driftEpisodes(s, st.id, range, settings);
-    if (rows.length === 0 && drift.raised === 0 && drift.cleared === 0) continue;
-    byStation.push({ stationId: st.id, station: st.name, ...qualityOf(rows), driftAlertsRaised: drift.raised, driftAlertsCleared: drift.cleared });
+    const alerts = drift.get(st.id) ?? { raised: 0, cleared: 0 };
+    if (rows.length === 0 && alerts.raised === 0 && alerts.cleared === 0) continue;
+    byStation.push({ stationId: st.id, station: st.name, ...qualityOf(rows), driftAlertsRaised: alerts.raised, driftAlertsCleared: alerts.cleared });
   }
   const adjustments = await repo.adjustmentsIn(s, range, q.stationId);
   const leveling = [];
