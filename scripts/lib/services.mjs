@@ -2,7 +2,7 @@
 import { dirname, join, relative } from 'node:path';
 import { ROOT, ensureDataDirs, fail, loadSecrets, paths } from './data.mjs';
 import { CHROMIUM, MARIADB, ensurePnpm, ensureSystemPackages, installDependencies } from './install.mjs';
-import { databaseUrl, ensureMariadb, setupDatabase } from './mariadb.mjs';
+import { databaseUrl, ensureMariadb, setupDatabase, setupReplicationUser } from './mariadb.mjs';
 import {
   answers200,
   recordPid,
@@ -81,7 +81,8 @@ export async function prepareSystem({ ports, browser = false }, state = {}) {
   const { startedHere, port } = await ensureMariadb({ port: ports.db });
   state.startedDb = startedHere;
   setupDatabase(secrets.dbPassword);
-  return { databaseUrl: databaseUrl(secrets.dbPassword, port), authSecret };
+  const replicationSourceUrl = setupReplicationUser(port);
+  return { databaseUrl: databaseUrl(secrets.dbPassword, port), authSecret, replicationSourceUrl };
 }
 
 export async function migrateAndSeed({ databaseUrl: url, authSecret }) {

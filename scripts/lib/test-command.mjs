@@ -145,7 +145,10 @@ export async function test() {
       TEST_DATABASE_URL: testUrl,
       E2E_DATABASE_URL: e2eUrl,
     };
-    await check('integration', () => vitestCheck('integration', { ...shared, DATABASE_URL: testUrl }));
+    // The replica test follows the primary as the replication user; with an outside DATABASE_URL it is whatever
+    // REPLICATION_SOURCE_URL the caller set.
+    const replication = context.replicationSourceUrl ? { REPLICATION_SOURCE_URL: context.replicationSourceUrl } : {};
+    await check('integration', () => vitestCheck('integration', { ...shared, ...replication, DATABASE_URL: testUrl }));
     await check('e2e', () =>
       vitestCheck('e2e', {
         ...shared,

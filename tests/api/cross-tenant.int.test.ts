@@ -154,11 +154,14 @@ const EXAMPLE_BODIES: Record<string, () => unknown> = {
 };
 
 const keyOf = (route: Route) => `${route.method} ${route.path}`;
-const paramsOf = (route: Route) => [...route.path.matchAll(/:(\w+)/g)].map((m) => m[1] ?? '').filter((p) => p !== 'rinkSlug');
+/** Path parts that name something of the route itself (a report's table), not a row of a rink. */
+const NAMES: Record<string, string> = { table: 'byDay' };
+const paramsOf = (route: Route) => [...route.path.matchAll(/:(\w+)/g)].map((m) => m[1] ?? '').filter((p) => p !== 'rinkSlug' && !(p in NAMES));
 
 function pathFor(route: Route, slug: string, f: Fixture): string {
   return route.path.replace(/:(\w+)/g, (_, name: string) => {
     if (name === 'rinkSlug') return slug;
+    if (name in NAMES) return NAMES[name]!;
     const idOf = ID_OF_B[name];
     if (!idOf) throw new Error(`${keyOf(route)}: no rink-B fixture for :${name}; add one to ID_OF_B in cross-tenant.int.test.ts`);
     return encodeURIComponent(idOf(f));

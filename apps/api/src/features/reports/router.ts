@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { leagueReport, moneyReport, qualityReport, reportQuery, throughputReport, type ReportName } from '@rinkwright/core';
-import { reportScope } from '@rinkwright/db';
+import { scoped } from '@rinkwright/db';
 import { roleAllows } from '../../access';
 import { AppError } from '../../http/errors';
 import { defineRoute, type RinkContext } from '../../http/route';
@@ -55,7 +55,7 @@ export const reportRoutes = [
       produces: 'csv',
       handle: async ({ ctx, params, query, res }) => {
         const answer = (await reportFor(ctx, report, query)) as { tables: Record<string, Record<string, unknown>[]> };
-        const rink = await reportScope(ctx.tenantId).rink();
+        const rink = await scoped(ctx.tenantId).rink();
         const csv = tableCsv(report, params.table, answer, { currency: rink?.currency ?? 'USD', unitPreference: rink?.unitPreference ?? 'in' });
         res.attachment(`${ctx.rinkSlug}-${report}-${params.table}-${query.from}-to-${query.to}.csv`);
         return csv;

@@ -11,7 +11,7 @@ import {
   type ReportQuery,
   type ThroughputReport,
 } from '@rinkwright/core';
-import { reportScope, type Scope } from '@rinkwright/db';
+import { reportScope, scoped, type Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
 import { localClock, nextDay, weekdayOf } from './local-time';
@@ -301,8 +301,9 @@ export async function leagues(s: Scope, q: ReportQuery, zone: string, managerUse
 
 // ---- the rink's routes ----------------------------------------------------------------------------------------
 
+// The rink's own row comes from the primary: a replica a moment behind must not make a new rink unknown.
 async function rinkOf(ctx: RinkContext) {
-  const rink = await reportScope(ctx.tenantId).rink();
+  const rink = await scoped(ctx.tenantId).rink();
   if (!rink) throw AppError.notFound('No such rink');
   return rink;
 }
