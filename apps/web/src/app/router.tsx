@@ -62,6 +62,8 @@ export function createAppRouter(client: QueryClient) {
                 { path: 'billing', lazy: () => import('../features/sales/routes/billing') },
                 { path: 'leagues', lazy: () => import('../features/leagues/routes/leagues') },
                 { path: 'leagues/:leagueId', lazy: () => import('../features/leagues/routes/league') },
+                { path: 'reports', lazy: () => import('../features/reports/routes/reports') },
+                { path: 'reports/:report', lazy: () => import('../features/reports/routes/report') },
                 { path: 'staff', lazy: () => import('../features/staff/routes/staff') },
                 { path: 'settings', lazy: () => import('../features/rinks/routes/rink-settings') },
               ],

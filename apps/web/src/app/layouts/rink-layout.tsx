@@ -2,6 +2,7 @@ import { NavLink, Outlet, useParams } from 'react-router';
 import { Alert, Loading } from '../../components/ui/feedback';
 import { NotFound } from '../../components/ui/not-found';
 import { PendingWrites } from '../../components/ui/pending-writes';
+import { reportsFor } from '../../features/reports/components/access';
 import { useRinkSummary } from '../../features/rinks/api/get-rink';
 import { PlanBanner } from '../../features/sales/components/plan-banner';
 import { ApiError } from '../../lib/api-client';
@@ -29,6 +30,7 @@ export function RinkLayout() {
     { to: 'products', label: 'Products', show: can(summary, 'product', 'read') },
     { to: 'leagues', label: 'Leagues', show: can(summary, 'league', 'read') },
     { to: 'billing', label: 'Billing', show: can(summary, 'billing', 'read') },
+    { to: 'reports', label: 'Reports', show: reportsFor(summary).length > 0 },
     { to: 'staff', label: 'Staff', show: can(summary, 'member', 'read') },
     { to: 'settings', label: 'Settings', show: can(summary, 'rink', 'update') },
   ].filter((l) => l.show);
