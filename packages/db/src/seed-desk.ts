@@ -52,7 +52,9 @@ async function insertAll<T>(rows: T[], insert: (chunk: T[]) => Promise<unknown>)
 
 export async function seedDesk(db: Database, faker: Faker, o: DeskSeedOptions): Promise<void> {
   const tenantId = o.rinkId;
-  const start = new Date(o.now.getTime() - o.days * DAY);
+  // Days start at midnight UTC, so the counter's hours (13:00–24:00 UTC, morning to evening on the Atlantic coast)
+  // do not move with the time of day the seed runs.
+  const start = new Date(Math.floor((o.now.getTime() - o.days * DAY) / DAY) * DAY);
   const services = [
     { name: 'Standard sharpening', kind: 'standard' as const, priceMinor: o.priceMinor },
     { name: 'Profiling', kind: 'profiling' as const, priceMinor: o.priceMinor * 3 },

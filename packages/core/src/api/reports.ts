@@ -42,6 +42,16 @@ export type ReportQuery = z.infer<typeof reportQuery>;
 export const platformReportQuery = z.intersection(reportQuery, z.object({ rinkId: id.optional() }));
 export type PlatformReportQuery = z.infer<typeof platformReportQuery>;
 
+/** What the report filters offer, and the rink's today in its own time zone (the default period ends there). */
+export const reportFilterChoices = z.object({
+  timeZone: z.string(),
+  currency: z.string(),
+  today: z.string(),
+  stations: z.array(z.object({ id: z.string(), name: z.string() })),
+  technicians: z.array(z.object({ id: z.string(), name: z.string() })),
+});
+export type ReportFilterChoices = z.infer<typeof reportFilterChoices>;
+
 const period = z.object({ from: z.string(), to: z.string() });
 const share = z.number().min(0).max(1).nullable();
 
@@ -259,11 +269,6 @@ export const REPORT_TABLES = {
     },
   },
 } as const satisfies Record<ReportName, Record<string, { title: string; columns: ReportColumn[] }>>;
-
-export const reportTableParams = z.object({
-  report: z.enum(REPORT_NAMES),
-  table: z.string().min(1).max(40),
-});
 
 /** The columns of one report table, or undefined when the report has no such table. */
 export function reportColumns(report: ReportName, table: string): readonly ReportColumn[] | undefined {

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { leagueReport, moneyReport, qualityReport, reportQuery, throughputReport, type ReportName } from '@rinkwright/core';
+import { leagueReport, moneyReport, qualityReport, reportFilterChoices, reportQuery, throughputReport, type ReportName } from '@rinkwright/core';
 import { scoped } from '@rinkwright/db';
 import { roleAllows } from '../../access';
 import { AppError } from '../../http/errors';
@@ -8,13 +8,6 @@ import { reportOptions, rinkReport, tableCsv } from './service';
 
 const schemas = { throughput: throughputReport, quality: qualityReport, money: moneyReport, leagues: leagueReport } as const;
 const tableParams = z.object({ table: z.string().min(1).max(40) });
-const optionsResponse = z.object({
-  timeZone: z.string(),
-  currency: z.string(),
-  today: z.string(),
-  stations: z.array(z.object({ id: z.string(), name: z.string() })),
-  technicians: z.array(z.object({ id: z.string(), name: z.string() })),
-});
 
 // Every report but league usage needs report:read; a league manager holds only report:leagues (their leagues).
 async function reportFor(ctx: RinkContext, report: ReportName, query: z.infer<typeof reportQuery>) {
@@ -29,7 +22,7 @@ export const reportRoutes = [
     summary: 'The report filters’ choices (stations, technicians) and the rink’s today in its time zone',
     access: 'rink',
     permission: { report: ['leagues'] },
-    response: optionsResponse,
+    response: reportFilterChoices,
     handle: ({ ctx }) => reportOptions(ctx),
   }),
   ...(Object.keys(schemas) as ReportName[]).flatMap((report) => [

@@ -335,7 +335,7 @@ export async function rinkReport(ctx: RinkContext, report: ReportName, q: Report
 }
 
 const NM_PER_THOU = 25_400;
-const NM_PER_MM = 1_000_000;
+const NM_PER_HUNDREDTH_MM = 10_000;
 
 /**
  * One table of a report as CSV, with the screen's column labels as its header row. Money is written in the
@@ -350,10 +350,11 @@ export function tableCsv(report: ReportName, table: string, answer: { tables: Re
     if (typeof value !== 'number') return value ?? '';
     if (format === 'share') return value.toFixed(4);
     if (format === 'minor') return (value / 10 ** digits).toFixed(digits);
-    if (format === 'nm') return rink.unitPreference === 'in' ? (value / NM_PER_THOU).toFixed(2) : (value / NM_PER_MM).toFixed(4);
+    // Readings as the screens show them: thousandths of an inch, or hundredths of a millimetre.
+    if (format === 'nm') return rink.unitPreference === 'in' ? (value / NM_PER_THOU).toFixed(2) : (value / NM_PER_HUNDREDTH_MM).toFixed(2);
     return value;
   };
-  const label = (c: { label: string; format: string }) => (c.format === 'minor' ? `${c.label} (${rink.currency})` : c.format === 'nm' ? `${c.label} (${rink.unitPreference === 'in' ? 'thou' : 'mm'})` : c.label);
+  const label = (c: { label: string; format: string }) => (c.format === 'minor' ? `${c.label} (${rink.currency})` : c.format === 'nm' ? `${c.label} (${rink.unitPreference === 'in' ? 'thou' : 'hundredths mm'})` : c.label);
   return stringify(
     rows.map((r) => columns.map((c) => cell(c.format, r[c.key]))),
     { header: true, columns: columns.map(label) },

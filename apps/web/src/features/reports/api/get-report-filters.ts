@@ -1,15 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { ReportFilterChoices } from '@rinkwright/core';
 import { api } from '../../../lib/api-client';
 import { reportKeys, reportsPath } from './keys';
 
-export interface ReportFilterChoices {
-  timeZone: string;
-  currency: string;
-  /** The rink's local day now, as the server sees it: the default period ends here. */
-  today: string;
-  stations: { id: string; name: string }[];
-  technicians: { id: string; name: string }[];
-}
+export type { ReportFilterChoices };
 
 export const getReportFilters = (slug: string, signal?: AbortSignal) => api<ReportFilterChoices>(reportsPath(slug), { signal });
 
