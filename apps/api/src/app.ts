@@ -29,6 +29,7 @@ import { customerRoutes } from './features/customers/router';
 import { catalogRoutes } from './features/catalog/router';
 import { ticketRoutes } from './features/tickets/router';
 import { systemRoutes } from './features/system/router';
+import { followActiveStations } from './features/billing/plan';
 import { billingRoutes, mountWebhooks } from './features/billing/router';
 import type { SalesDeps } from './features/billing/sales';
 import { createPayments, type Payments } from './lib/payments';
@@ -52,11 +53,11 @@ export function routeTable(env: Env, auth: Auth, mailer: Mailer, logger: Logger,
     ...meRoutes,
     ...rinkRoutes(auth),
     ...staffRoutes(auth),
-    ...stationRoutes,
+    ...stationRoutes({ logger, activeStationsChanged: (tenantId, changeId) => followActiveStations(tenantId, sales, changeId) }),
     ...customerRoutes,
     ...catalogRoutes,
     ...ticketRoutes({ mailer, logger }),
-    ...platformRoutes,
+    ...platformRoutes(env),
     ...reportRoutes,
     ...billingRoutes(sales),
   );

@@ -4,7 +4,7 @@ import type { Fake } from './fake';
 import { completeOnboarding } from './resources/accounts';
 import { failCheckoutAuthentication, payCheckout, refreshExpiry } from './resources/checkout';
 import { present } from './store';
-import type { Account, CheckoutSession, PaymentIntent, PaymentMethod, StripeEvent, WebhookEndpoint } from './types';
+import type { Account, CheckoutSession, Customer, PaymentIntent, PaymentMethod, StripeEvent, WebhookEndpoint } from './types';
 
 // The fake's own HTML: the hosted checkout page and its second step, the onboarding page, the developer page,
 // and the `/_fake/` switches tests use. Plain HTML from template strings; every page says it is a test stand-in.
@@ -68,8 +68,16 @@ function formField(body: unknown, name: string): string {
   return typeof value === 'string' ? value.trim() : '';
 }
 
-function checkoutPage(session: CheckoutSession, options: { error?: string; email?: string } = {}): string {
-  const email = options.email ?? session.customer_details?.email ?? session.customer_email ?? '';
+/**
+ * Stripe API reference, checkout session `customer`: "If the Customer already has a valid email set, the email will
+ * be prefilled and not editable in Checkout."
+ */
+function customerEmailOf(fake: Fake, account: string, session: CheckoutSession): string | null {
+  return session.customer ? (fake.store.maybe<Customer>(account, session.customer, 'customer')?.email ?? null) : null;
+}
+
+function checkoutPage(session: CheckoutSession, options: { error?: string; email?: string; fixedEmail?: string | null } = {}): string {
+  const email = options.fixedEmail ?? options.email ?? session.customer_details?.email ?? session.customer_email ?? '';
   const items = session.__fake.lineItems
     .map((item) => {
       const recurring = item.price.recurring;
@@ -86,7 +94,7 @@ function checkoutPage(session: CheckoutSession, options: { error?: string; email
 ${options.error ? `<p role="alert">${escape(options.error)}</p>` : ''}
 <form method="post" action="/checkout/${escape(session.id)}">
 <label for="email">E-mail</label>
-<input id="email" name="email" type="email" autocomplete="email" required value="${escape(email)}">
+<input id="email" name="email" type="email" autocomplete="email" required value="${escape(email)}"${options.fixedEmail ? ' readonly' : ''}>
 <label for="card_number">Card number</label>
 <input id="card_number" name="card_number" inputmode="numeric" autocomplete="cc-number" required placeholder="4242 4242 4242 4242">
 <label for="expiry">Expiry (MM / YY)</label>
@@ -160,7 +168,7 @@ export function registerPages(app: Express, fake: Fake): void {
   app.get('/checkout/:id', (req, res) => {
     remember(req);
     const open = openSession(req, res);
-    if (open) sendPage(res, 200, 'Payment service test checkout', checkoutPage(open.session));
+    if (open) sendPage(res, 200, 'Payment service test checkout', checkoutPage(open.session, { fixedEmail: customerEmailOf(fake, open.account, open.session) }));
   });
 
   app.post('/checkout/:id', (req, res) => {
@@ -168,10 +176,11 @@ export function registerPages(app: Express, fake: Fake): void {
     const open = openSession(req, res);
     if (!open) return;
     const { account, session } = open;
-    const email = formField(req.body, 'email');
+    const fixedEmail = customerEmailOf(fake, account, session);
+    const email = fixedEmail ?? formField(req.body, 'email');
     const card = readCard(req.body, fake.nowSec());
     if (!email || typeof card === 'string') {
-      sendPage(res, 400, 'Payment service test checkout', checkoutPage(session, { error: typeof card === 'string' ? card : 'Your e-mail is incomplete.', email }));
+      sendPage(res, 400, 'Payment service test checkout', checkoutPage(session, { error: typeof card === 'string' ? card : 'Your e-mail is incomplete.', email, fixedEmail }));
       return;
     }
     const method = createPaymentMethod(fake, account, card.card, session.customer, fake.timeFor(account, session.customer), { month: card.month, year: card.year });
@@ -183,7 +192,7 @@ export function registerPages(app: Express, fake: Fake): void {
       session.__fake.pendingCard = { paymentMethod: method.id, email };
       res.redirect(303, `/checkout/${session.id}/authenticate`);
     } else {
-      sendPage(res, 402, 'Payment service test checkout', checkoutPage(session, { error: 'Your card was declined.', email }));
+      sendPage(res, 402, 'Payment service test checkout', checkoutPage(session, { error: 'Your card was declined.', email, fixedEmail }));
     }
   });
 

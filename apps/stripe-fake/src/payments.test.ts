@@ -182,6 +182,24 @@ describe('payment fake: checkout, payments and refunds', () => {
     expect(types.filter((type) => order.includes(type))).toEqual(order);
   });
 
+  it('prefills the e-mail of the session’s customer and keeps it, whatever the form sends', async () => {
+    // Stripe API reference, checkout session `customer`: a customer's valid e-mail is prefilled and not editable.
+    const product = await stripe.products.create({ name: 'Club' }, { stripeAccount: rink });
+    const price = await stripe.prices.create({ product: product.id, unit_amount: 2500, currency: 'usd', recurring: { interval: 'month' } }, { stripeAccount: rink });
+    const customer = await stripe.customers.create({ email: 'mira.holt@example.test', name: 'Mira Holt' }, { stripeAccount: rink });
+    const session = await stripe.checkout.sessions.create(
+      { mode: 'subscription', customer: customer.id, line_items: [{ price: price.id, quantity: 1 }], success_url: 'http://127.0.0.1:3000/thanks' },
+      { stripeAccount: rink },
+    );
+    const page = await (await fetch(session.url ?? '')).text();
+    expect(page).toMatch(/name="email"[^>]*value="mira\.holt@example\.test" readonly/);
+    const paid = await submit(session.url ?? '', { email: 'someone.else@example.test', card_number: '4242 4242 4242 4242', ...CARD });
+    expect(paid.status).toBe(303);
+    const done = await stripe.checkout.sessions.retrieve(session.id, {}, { stripeAccount: rink });
+    expect(done.customer_details?.email).toBe('mira.holt@example.test');
+    expect(done.customer).toBe(customer.id);
+  });
+
   it('runs counter payment intents: success, decline, second step, cancel', async () => {
     const customer = await stripe.customers.create({ email: 'walk-in@example.test' });
     const paid = await stripe.paymentIntents.create({

@@ -97,9 +97,10 @@ export async function findRinkByConnectedAccount(accountId: string) {
 }
 
 /** The rink's plan state, read on every write to a rink: a rink whose plan went unpaid past its grace is read-only. */
+/** The rink's standing with the platform: its plan's state and grace, and whether the platform suspended it. */
 export async function findPlanState(rinkId: string) {
   const rows = await currentDb()
-    .select({ planState: rinkBilling.planState, graceUntil: rinkBilling.planGraceUntil })
+    .select({ planState: rinkBilling.planState, graceUntil: rinkBilling.planGraceUntil, suspendedAt: rinkBilling.suspendedAt, suspendedReason: rinkBilling.suspendedReason })
     .from(rinkBilling)
     .where(eq(rinkBilling.tenantId, rinkId))
     .limit(1);

@@ -11,6 +11,7 @@ export const STATUS_OF: Record<ErrorCode, number> = {
   conflict: 409,
   insufficient_credits: 409,
   read_only: 403,
+  suspended: 403,
   payment_failed: 402,
   payment_unavailable: 503,
   unprocessable: 422,

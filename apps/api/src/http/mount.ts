@@ -35,10 +35,14 @@ async function contextFor(route: Route, auth: Auth, req: Request): Promise<unkno
       if (route.permission && !roleAllows(ctx.role, route.permission)) {
         throw new AppError('forbidden', 'Your role at this rink does not allow this');
       }
+      const standing = await directory.findPlanState(ctx.tenantId);
+      // A rink the platform suspended answers its staff nothing but why, until it is reactivated.
+      if (standing?.suspendedAt) {
+        throw new AppError('suspended', `The platform has suspended this rink${standing.suspendedReason ? `: ${standing.suspendedReason}` : ''}. Contact the platform to have it reactivated.`);
+      }
       // An unpaid plan past its grace leaves the rink readable, and only its billing can change (to pay it).
       if (route.method !== 'get' && !route.permission?.billing) {
-        const plan = await directory.findPlanState(ctx.tenantId);
-        const lapsed = plan && (plan.planState === 'read_only' || graceLapsed(plan.planState, plan.graceUntil, new Date()));
+        const lapsed = standing && (standing.planState === 'read_only' || graceLapsed(standing.planState, standing.graceUntil, new Date()));
         if (lapsed) throw new AppError('read_only', 'This rink is read-only until its Rinkwright plan is paid');
       }
       return ctx;

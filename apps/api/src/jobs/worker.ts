@@ -2,13 +2,17 @@ import { and, eq, gt, gte, isNotNull, lt, lte, sql } from 'drizzle-orm';
 import type { Logger } from 'pino';
 import { creditAccount, creditEntry, creditLot, customer, directory, idempotencyKey, membership, rinkBilling, scoped, type Scope } from '@rinkwright/db';
 import type { Env } from '../env';
+import { syncPlanQuantity } from '../features/billing/plan';
+import { refreshReports } from '../features/reports/refresh';
 import * as ledger from '../lib/ledger/ledger';
 import { expiredLotsDue } from '../lib/ledger/repository';
 import { noticeMail, type Mailer } from '../lib/mailer';
+import { createPayments, type Payments } from '../lib/payments';
 
-// The background worker: mail retries every tick; once a day per rink, expired lots become breakage entries,
+// The background worker: mail retries and report summaries every tick; once a day per rink, expired lots become breakage entries,
 // reminders go out (expiry within two weeks, a low balance after a redemption), lapsed grace periods take
-// effect, and idempotency keys past their window are swept. Every step is safe to run twice.
+// effect, the plan's quantity is set again to the active stations, and idempotency keys past their window are
+// swept. Every step is safe to run twice.
 
 const DAY = 86_400_000;
 
@@ -16,6 +20,8 @@ export interface WorkerDeps {
   env: Env;
   mailer: Mailer;
   logger: Logger;
+  /** The payment service's client; made from env when not given. */
+  payments?: Payments;
 }
 
 /** One rink's daily work; exported so tests can run it at a chosen time. */
@@ -24,8 +30,22 @@ export async function sweepRink(rinkId: string, deps: WorkerDeps, now = new Date
   const expired = await expireLots(s, now);
   const reminders = (await remindExpiring(s, deps, now)) + (await remindLowBalance(s, deps, now));
   await lapseGrace(s, now);
+  const plan = await resyncPlanQuantity(s, deps, now);
   await s.remove(idempotencyKey, lt(idempotencyKey.createdAt, new Date(now.getTime() - 2 * DAY)));
-  return { expired, reminders };
+  return { expired, reminders, plan };
+}
+
+/**
+ * Station changes set the plan's quantity as they happen, but one may have failed to reach the payment service;
+ * once a day it is set to the active count. A service that is down leaves it to tomorrow and the sweep goes on.
+ */
+async function resyncPlanQuantity(s: Scope, deps: WorkerDeps, now: Date) {
+  try {
+    return await syncPlanQuantity(s, { payments: deps.payments ?? createPayments(deps.env) }, `sweep:${now.toISOString().slice(0, 10)}`);
+  } catch (error) {
+    deps.logger.warn({ err: error, rinkId: s.tenantId }, 'plan quantity not set by the daily sweep');
+    return null;
+  }
 }
 
 async function expireLots(s: Scope, now: Date): Promise<number> {
@@ -106,7 +126,8 @@ async function lapseGrace(s: Scope, now: Date) {
 }
 
 /** Starts the ticking worker (not in tests: they call the steps). Returns a stop function. */
-export function startWorker(deps: WorkerDeps): () => void {
+export function startWorker(given: WorkerDeps): () => void {
+  const deps = { ...given, payments: given.payments ?? createPayments(given.env) };
   let running = false;
   const tick = async () => {
     if (running) return;
@@ -114,11 +135,16 @@ export function startWorker(deps: WorkerDeps): () => void {
     try {
       await deps.mailer.drain();
       const day = new Date().toISOString().slice(0, 10);
-      for (const rinkId of await directory.listRinkIds()) {
+      const rinkIds = await directory.listRinkIds();
+      // Report summaries follow the writes every tick (a rink with nothing new costs a few indexed reads).
+      for (const rinkId of rinkIds) {
+        await refreshReports(rinkId).catch((error: unknown) => deps.logger.warn({ err: error, rinkId }, 'report summaries not refreshed'));
+      }
+      for (const rinkId of rinkIds) {
         if (!(await directory.claimJobRun(`sweep:${rinkId}`, day))) continue;
         const done = await sweepRink(rinkId, deps);
         await directory.finishJobRun(`sweep:${rinkId}`, day);
-        if (done.expired || done.reminders) deps.logger.info({ rinkId, ...done }, 'daily credit sweep');
+        if (done.expired || done.reminders || done.plan?.updated) deps.logger.info({ rinkId, ...done }, 'daily credit sweep');
       }
     } catch (error) {
       deps.logger.error({ err: error }, 'worker tick failed');

@@ -10,6 +10,7 @@ export const ERROR_CODES = [
   'conflict',
   'insufficient_credits',
   'read_only',
+  'suspended',
   'payment_failed',
   'payment_unavailable',
   'unprocessable',

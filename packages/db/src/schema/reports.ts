@@ -102,9 +102,9 @@ export const reportDriftDay = mysqlTable(
 export const reportRefresh = mysqlTable(
   'report_refresh',
   {
-    tenantId: tenantId().primaryKey(),
+    tenantId: tenantId(),
     through: at('through').notNull(),
     refreshedAt: at('refreshed_at').notNull(),
   },
-  (t) => [rinkFk('report_refresh_rink_fk', t.tenantId)],
+  (t) => [primaryKey({ name: 'report_refresh_pk', columns: [t.tenantId] }), rinkFk('report_refresh_rink_fk', t.tenantId)],
 );

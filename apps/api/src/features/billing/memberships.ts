@@ -43,17 +43,18 @@ export async function syncMembership(s: Scope, deps: SalesDeps, account: string,
   const existing = await repo.findMembershipBySubscription(s, sub.id);
   // A cancellation is final: a late "active" event must not bring a canceled membership back.
   if (existing?.state === 'canceled') state = 'canceled';
-  const graceUntil = state === 'past_due' ? (existing?.graceUntil ?? new Date(Date.now() + (product.graceDays ?? 0) * DAY)) : null;
-  const set = { state, periodStart: period.start, periodEnd: period.end, cancelAtPeriodEnd: sub.cancel_at_period_end ? 1 : 0, graceUntil, updatedAt: new Date() };
+  const graceUntil = state === 'past_due' ? new Date(Date.now() + (product.graceDays ?? 0) * DAY) : null;
+  const set = { state, periodStart: period.start, periodEnd: period.end, cancelAtPeriodEnd: sub.cancel_at_period_end ? 1 : 0, updatedAt: new Date() };
+  const update = { ...set, graceUntil: graceUntil && repo.membershipGraceFrom(graceUntil) };
   if (existing) {
-    await repo.updateMembership(s, existing.id, set);
+    await repo.updateMembership(s, existing.id, update);
   } else {
     try {
-      await repo.insertMembership(s, { id: randomUUID(), customerId, productId, subscriptionId: sub.id, serviceUpdatedAt: 0, createdAt: new Date(), ...set });
+      await repo.insertMembership(s, { id: randomUUID(), customerId, productId, subscriptionId: sub.id, serviceUpdatedAt: 0, createdAt: new Date(), ...set, graceUntil });
     } catch (error) {
       // Another delivery about the same subscription made the row a moment ago.
       if (!isDuplicateKey(error)) throw error;
-      await repo.updateMembership(s, (await repo.findMembershipBySubscription(s, sub.id))!.id, set);
+      await repo.updateMembership(s, (await repo.findMembershipBySubscription(s, sub.id))!.id, update);
     }
   }
   return repo.findMembershipBySubscription(s, sub.id);
@@ -89,6 +90,8 @@ export async function applyInvoice(s: Scope, deps: SalesDeps, account: string, i
     }
     return;
   }
+  // The membership's state and grace stay as syncMembership read them from the subscription: a paid invoice
+  // delivered late (an earlier period's) must not clear the grace of a renewal that has failed since.
   const paidAt = toDate(invoice.status_transitions?.paid_at) ?? new Date();
   const lineEnd = toDate(invoice.lines?.data?.[0]?.period?.end) ?? membership.periodEnd;
   const op = await s.transaction(async (tx) => {
@@ -97,7 +100,6 @@ export async function applyInvoice(s: Scope, deps: SalesDeps, account: string, i
     if (locked.state === 'pending' || locked.state === 'failed') {
       await repo.updatePayment(tx, paymentId, { state: 'paid', paidAt, amountMinor: invoice.amount_paid, paymentIntentId: locked.paymentIntentId ?? idOf(invoice.payment_intent) });
     }
-    await repo.updateMembership(tx, membership.id, { graceUntil: null, state: membership.state === 'canceled' ? 'canceled' : 'active' });
     const account = await ledger.skaterAccount(tx, membership.customerId);
     return ledger.grantMembershipPeriod(tx, {
       accountId: account.id,

@@ -87,8 +87,9 @@ export async function startPlan(ctx: RinkContext, deps: SalesDeps): Promise<{ ur
   const s = scoped(ctx.tenantId);
   const billing = await repo.ensureBilling(s, deps.env.PLATFORM_FEE_BPS);
   const state = effectivePlanState(billing, new Date());
-  if (state === 'active' || state === 'past_due') throw new AppError('conflict', 'The plan is already running');
-  const stations = Math.max(1, await repo.countActiveStations(s));
+  // In its grace a rink may pay with another card: the new subscription replaces the unpaid one once it is paid.
+  if (state === 'active') throw new AppError('conflict', 'The plan is already running');
+  const stations = planQuantity(await repo.countActiveStations(s));
   const base = `${deps.env.APP_URL.replace(/\/$/, '')}/rinks/${ctx.rinkSlug}/billing`;
   return callPayments(async () => {
     let customer = billing.planCustomerId;
@@ -112,6 +113,17 @@ export async function startPlan(ctx: RinkContext, deps: SalesDeps): Promise<{ ur
   });
 }
 
+/**
+ * A plan restarted after it lapsed replaces its unpaid subscription once the new one is paid, and the old one is
+ * ended so it stops renewing (and failing) beside it. Ending it earlier, at checkout, would let an abandoned
+ * checkout turn a read-only rink into one without a plan.
+ */
+async function endPreviousPlan(deps: SalesDeps, subscriptionId: string): Promise<void> {
+  const previous = await deps.payments.subscriptions.retrieve(subscriptionId);
+  if (previous.status === 'canceled' || previous.status === 'incomplete_expired') return;
+  await deps.payments.subscriptions.cancel(subscriptionId, {}, { idempotencyKey: `plan-end:${subscriptionId}` });
+}
+
 type SubscriptionWithPeriod = Stripe.Subscription & { current_period_end?: number };
 
 /** The plan's state from its subscription as the service has it now (events may come in any order). */
@@ -122,11 +134,18 @@ export async function syncPlan(deps: SalesDeps, subscriptionId: string, failedIn
   const s = scoped(rinkId);
   const billing = await repo.findBilling(s);
   if (!billing) return;
+  const previous = billing.planSubscriptionId;
+  if (previous && previous !== sub.id) {
+    // Another subscription than the rink's current one: a paid restart takes over; anything else (the late events
+    // of the one a restart replaced, a checkout that never got paid) describes no current plan.
+    if (sub.status !== 'active' && sub.status !== 'trialing') return;
+    await endPreviousPlan(deps, previous);
+  }
   const item = sub.items?.data?.[0] as (Stripe.SubscriptionItem & { current_period_end?: number }) | undefined;
   const periodEnd = item?.current_period_end ?? sub.current_period_end;
   const state: repo.BillingRecord['planState'] =
     sub.status === 'active' || sub.status === 'trialing' ? 'active' : sub.status === 'past_due' || sub.status === 'unpaid' ? 'past_due' : sub.status === 'canceled' ? 'canceled' : billing.planState;
-  const graceUntil = state === 'past_due' ? (billing.planGraceUntil ?? new Date(Date.now() + deps.env.PLAN_GRACE_DAYS * DAY)) : null;
+  const graceUntil = state === 'past_due' ? repo.planGraceFrom(new Date(Date.now() + deps.env.PLAN_GRACE_DAYS * DAY)) : null;
   await repo.updateBilling(s, {
     planSubscriptionId: sub.id,
     planState: failedInvoice && state === 'active' ? billing.planState : state,
@@ -151,4 +170,52 @@ export async function advanceClocks(ctx: RinkContext, deps: SalesDeps, days: num
     if (billing.platformTestClockId) await move(billing.platformTestClockId);
   });
   return billingStatus(ctx, deps);
+}
+
+// ---- the plan's quantity follows the active stations --------------------------------------------------------
+
+/** Stations billed for an active-station count: a running plan bills at least one, as it did when it started. */
+export const planQuantity = (activeStations: number) => Math.max(1, activeStations);
+
+/**
+ * Sets the plan subscription's quantity at the service to the rink's active stations, if it differs. `changeKey`
+ * names the change (a station's, or the day's sweep) and, with the quantity, makes the idempotency key, so a
+ * retried request is applied once. A rink without a running plan is left alone.
+ */
+export async function syncPlanQuantity(
+  s: Scope,
+  deps: Pick<SalesDeps, 'payments'>,
+  changeKey: string,
+  options: Pick<Stripe.RequestOptions, 'timeout' | 'maxNetworkRetries'> = {},
+): Promise<{ quantity: number; updated: boolean } | null> {
+  const billing = await repo.findBilling(s);
+  if (!billing?.planSubscriptionId || billing.planState === 'none' || billing.planState === 'canceled') return null;
+  const sub = await deps.payments.subscriptions.retrieve(billing.planSubscriptionId, {}, options);
+  const item = sub.items.data[0];
+  if (!item || sub.status === 'canceled' || sub.status === 'incomplete_expired') return null;
+  const quantity = planQuantity(await repo.countActiveStations(s));
+  if (item.quantity === quantity) return { quantity, updated: false };
+  await deps.payments.subscriptions.update(sub.id, { items: [{ id: item.id, quantity }] }, { ...options, idempotencyKey: `plan-quantity:${sub.id}:${changeKey}:${quantity}` });
+  await repo.updateBilling(s, { planStations: quantity });
+  return { quantity, updated: true };
+}
+
+/** One quantity sync at a time per rink in this process, so two quick station changes cannot leave the older count last. */
+const syncing = new Map<string, Promise<unknown>>();
+
+/**
+ * A station was activated, deactivated or added: the plan follows at once. The station change does not wait long
+ * for a slow service (5 s, one retry under the same key); a failure is the caller's to log, and the worker's daily
+ * sweep sets the quantity again.
+ */
+export function followActiveStations(tenantId: string, deps: Pick<SalesDeps, 'payments'>, changeId: string) {
+  const run = (syncing.get(tenantId) ?? Promise.resolve())
+    .catch(() => undefined)
+    .then(() => syncPlanQuantity(scoped(tenantId), deps, `station:${changeId}`, { timeout: 5_000, maxNetworkRetries: 1 }));
+  syncing.set(tenantId, run);
+  const forget = () => {
+    if (syncing.get(tenantId) === run) syncing.delete(tenantId);
+  };
+  run.then(forget, forget);
+  return run;
 }

@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, gte, inArray, sql, sum } from 'drizzle-orm';
+import { and, asc, desc, eq, gte, inArray, sql, sum, type SQL } from 'drizzle-orm';
 import {
   creditEntry,
   creditLot,
@@ -21,6 +21,15 @@ export type PriceRecord = typeof productPrice.$inferSelect;
 export type PaymentRecord = typeof payment.$inferSelect;
 export type MembershipRecord = typeof membership.$inferSelect;
 export type BillingRecord = typeof rinkBilling.$inferSelect;
+/** A row's new values; a column may also take an SQL expression of the row (the grace helpers below). */
+type SetOf<Row> = { [K in keyof Row]?: Row[K] | SQL };
+
+/**
+ * The grace after a failed payment starts once: the row keeps a grace end it already has, so deliveries of one
+ * failure handled at the same moment cannot each start their own.
+ */
+export const planGraceFrom = (until: Date) => sql`coalesce(${rinkBilling.planGraceUntil}, ${sql.param(until, rinkBilling.planGraceUntil)})`;
+export const membershipGraceFrom = (until: Date) => sql`coalesce(${membership.graceUntil}, ${sql.param(until, membership.graceUntil)})`;
 
 // ---- catalog ----
 export const listProducts = (s: Scope) => s.find(product, { orderBy: [asc(product.kind), asc(product.name)] });
@@ -48,7 +57,7 @@ export async function ensureBilling(s: Scope, feeBps: number): Promise<BillingRe
   if (!made) throw new Error('rink billing row missing');
   return made;
 }
-export const updateBilling = (s: Scope, set: Partial<typeof rinkBilling.$inferInsert>) => s.update(rinkBilling, { ...set, updatedAt: new Date() }, s.filter(rinkBilling));
+export const updateBilling = (s: Scope, set: SetOf<typeof rinkBilling.$inferInsert>) => s.update(rinkBilling, { ...set, updatedAt: new Date() }, s.filter(rinkBilling));
 export const countActiveStations = (s: Scope) => s.count(station, eq(station.status, 'active'));
 
 // ---- customers ----
@@ -100,7 +109,7 @@ export const refundsOf = (s: Scope, paymentIds: string[]) =>
 export const findMembership = (s: Scope, id: string) => s.findOne(membership, eq(membership.id, id));
 export const findMembershipBySubscription = (s: Scope, subscriptionId: string) => s.findOne(membership, eq(membership.subscriptionId, subscriptionId));
 export const insertMembership = (s: Scope, row: Omit<typeof membership.$inferInsert, 'tenantId'>) => s.insert(membership, row);
-export const updateMembership = (s: Scope, id: string, set: Partial<typeof membership.$inferInsert>) => s.update(membership, set, eq(membership.id, id));
+export const updateMembership = (s: Scope, id: string, set: SetOf<typeof membership.$inferInsert>) => s.update(membership, set, eq(membership.id, id));
 export function membershipsOf(s: Scope, customerId: string) {
   return s.findJoined(membership, {
     fields: {

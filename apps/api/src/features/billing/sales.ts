@@ -34,6 +34,7 @@ export async function requireConnected(s: Scope) {
     throw new AppError('conflict', 'This rink has not finished connecting its payout account, so it cannot sell yet');
   }
   if (billing.planState === 'read_only') throw new AppError('read_only', 'This rink is read-only until its Rinkwright plan is paid');
+  if (billing.suspendedAt) throw new AppError('suspended', 'This rink is not selling at the moment');
   return { ...billing, connectedAccountId: billing.connectedAccountId };
 }
 

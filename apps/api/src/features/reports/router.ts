@@ -1,13 +1,15 @@
 import { z } from 'zod';
-import { leagueReport, moneyReport, qualityReport, reportFilterChoices, reportQuery, throughputReport, type ReportName } from '@rinkwright/core';
-import { scoped } from '@rinkwright/db';
+import { leagueReport, moneyReport, platformRinkParams, qualityReport, reportFilterChoices, reportQuery, throughputReport, type ReportName } from '@rinkwright/core';
 import { roleAllows } from '../../access';
 import { AppError } from '../../http/errors';
 import { defineRoute, type RinkContext } from '../../http/route';
-import { reportOptions, rinkReport, tableCsv } from './service';
+import { reportCsv, reportOf, reportOptions, rinkReport } from './service';
 
 const schemas = { throughput: throughputReport, quality: qualityReport, money: moneyReport, leagues: leagueReport } as const;
 const tableParams = z.object({ table: z.string().min(1).max(40) });
+
+type Tables = { tables: Record<string, Record<string, unknown>[]> };
+const platformTableParams = platformRinkParams.extend({ table: tableParams.shape.table });
 
 // Every report but league usage needs report:read; a league manager holds only report:leagues (their leagues).
 async function reportFor(ctx: RinkContext, report: ReportName, query: z.infer<typeof reportQuery>) {
@@ -23,7 +25,7 @@ export const reportRoutes = [
     access: 'rink',
     permission: { report: ['leagues'] },
     response: reportFilterChoices,
-    handle: ({ ctx }) => reportOptions(ctx),
+    handle: ({ ctx }) => reportOptions(ctx.tenantId),
   }),
   ...(Object.keys(schemas) as ReportName[]).flatMap((report) => [
     defineRoute({
@@ -47,10 +49,45 @@ export const reportRoutes = [
       response: z.string(),
       produces: 'csv',
       handle: async ({ ctx, params, query, res }) => {
-        const answer = (await reportFor(ctx, report, query)) as { tables: Record<string, Record<string, unknown>[]> };
-        const rink = await scoped(ctx.tenantId).rink();
-        const csv = tableCsv(report, params.table, answer, { currency: rink?.currency ?? 'USD', unitPreference: rink?.unitPreference ?? 'in' });
+        const csv = await reportCsv(ctx.tenantId, report, params.table, (await reportFor(ctx, report, query)) as Tables);
         res.attachment(`${ctx.rinkSlug}-${report}-${params.table}-${query.from}-to-${query.to}.csv`);
+        return csv;
+      },
+    }),
+  ]),
+  // The platform admin opens the same reports for any rink.
+  defineRoute({
+    method: 'get',
+    path: '/api/platform/rinks/:rinkId/reports',
+    summary: 'A rink’s report filter choices (platform admin only)',
+    access: 'platform',
+    params: platformRinkParams,
+    response: reportFilterChoices,
+    handle: ({ params }) => reportOptions(params.rinkId),
+  }),
+  ...(Object.keys(schemas) as ReportName[]).flatMap((report) => [
+    defineRoute({
+      method: 'get',
+      path: `/api/platform/rinks/:rinkId/reports/${report}`,
+      summary: `A rink’s ${report} report (platform admin only)`,
+      access: 'platform',
+      params: platformRinkParams,
+      query: reportQuery,
+      response: schemas[report],
+      handle: ({ params, query }) => reportOf(params.rinkId, report, query),
+    }),
+    defineRoute({
+      method: 'get',
+      path: `/api/platform/rinks/:rinkId/reports/${report}/:table.csv`,
+      summary: `One table of a rink’s ${report} report as CSV (platform admin only)`,
+      access: 'platform',
+      params: platformTableParams,
+      query: reportQuery,
+      response: z.string(),
+      produces: 'csv',
+      handle: async ({ params, query, res }) => {
+        const csv = await reportCsv(params.rinkId, report, params.table, (await reportOf(params.rinkId, report, query)) as Tables);
+        res.attachment(`${report}-${params.table}-${query.from}-to-${query.to}.csv`);
         return csv;
       },
     }),

@@ -302,16 +302,16 @@ export async function leagues(s: Scope, q: ReportQuery, zone: string, managerUse
 // ---- the rink's routes ----------------------------------------------------------------------------------------
 
 // The rink's own row comes from the primary: a replica a moment behind must not make a new rink unknown.
-async function rinkOf(ctx: RinkContext) {
-  const rink = await scoped(ctx.tenantId).rink();
+async function rinkOf(tenantId: string) {
+  const rink = await scoped(tenantId).rink();
   if (!rink) throw AppError.notFound('No such rink');
   return rink;
 }
 
 /** The filters' choices and the rink's today (its own time zone), for the report screens. */
-export async function reportOptions(ctx: RinkContext) {
-  const s = reportScope(ctx.tenantId);
-  const rink = await rinkOf(ctx);
+export async function reportOptions(tenantId: string) {
+  const s = reportScope(tenantId);
+  const rink = await rinkOf(tenantId);
   const [stations, people] = await Promise.all([repo.stationsOf(s), repo.techniciansOf(s)]);
   return {
     timeZone: rink.timeZone,
@@ -322,16 +322,27 @@ export async function reportOptions(ctx: RinkContext) {
   };
 }
 
-/** A league manager sees only the league report, and only their leagues; everyone else with report access sees all. */
-export async function rinkReport(ctx: RinkContext, report: ReportName, q: ReportQuery) {
-  if (report !== 'leagues' && ctx.role === 'league_manager') throw AppError.notFound('No such report');
-  await refreshReports(ctx.tenantId);
-  const rink = await rinkOf(ctx);
-  const s = reportScope(ctx.tenantId);
+/** One report of one rink, its summaries refreshed first. League usage can be narrowed to one manager's leagues. */
+export async function reportOf(tenantId: string, report: ReportName, q: ReportQuery, leagueManagerId?: string) {
+  await refreshReports(tenantId);
+  const rink = await rinkOf(tenantId);
+  const s = reportScope(tenantId);
   if (report === 'throughput') return throughput(s, q);
   if (report === 'quality') return quality(s, q, rink.timeZone);
   if (report === 'money') return money(s, q, rink.timeZone, rink.currency);
-  return leagues(s, q, rink.timeZone, ctx.role === 'league_manager' ? ctx.userId : undefined);
+  return leagues(s, q, rink.timeZone, leagueManagerId);
+}
+
+/** A league manager sees only the league report, and only their leagues; everyone else with report access sees all. */
+export function rinkReport(ctx: RinkContext, report: ReportName, q: ReportQuery) {
+  if (report !== 'leagues' && ctx.role === 'league_manager') throw AppError.notFound('No such report');
+  return reportOf(ctx.tenantId, report, q, ctx.role === 'league_manager' ? ctx.userId : undefined);
+}
+
+/** A report's table as CSV, for the rink's staff or the platform admin. */
+export async function reportCsv(tenantId: string, report: ReportName, table: string, answer: { tables: Record<string, Record<string, unknown>[]> }) {
+  const rink = await rinkOf(tenantId);
+  return tableCsv(report, table, answer, { currency: rink.currency, unitPreference: rink.unitPreference });
 }
 
 const NM_PER_THOU = 25_400;

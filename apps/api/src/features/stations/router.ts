@@ -15,7 +15,7 @@ import {
 import { defineRoute } from '../../http/route';
 import * as stations from './service';
 
-export const stationRoutes = [
+export const stationRoutes = (hooks: stations.StationHooks) => [
   defineRoute({
     method: 'get',
     path: '/api/rinks/:rinkSlug/stations',
@@ -35,7 +35,7 @@ export const stationRoutes = [
     params: rinkParams,
     body: stationInput,
     response: stationRow,
-    handle: ({ ctx, body }) => stations.addStation(ctx, body),
+    handle: ({ ctx, body }) => stations.addStation(ctx, hooks, body),
   }),
   defineRoute({
     method: 'get',
@@ -56,7 +56,7 @@ export const stationRoutes = [
     params: stationParams,
     body: stationInput,
     response: stationRow,
-    handle: ({ ctx, params, body }) => stations.changeStation(ctx, params.stationId, body),
+    handle: ({ ctx, params, body }) => stations.changeStation(ctx, hooks, params.stationId, body),
   }),
   defineRoute({
     method: 'post',

@@ -9,6 +9,7 @@ import type {
   StationInput,
   StationRow,
 } from '@rinkwright/core';
+import type { Logger } from 'pino';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
 import { readDeskSettings, saveDeskSettings } from '../../lib/desk-settings';
@@ -17,6 +18,25 @@ import { assessStation } from './quality';
 import * as repo from './repository';
 
 const NOT_FOUND = 'No such station at this rink';
+
+/**
+ * What follows the number of active stations outside this feature (the rink's plan is billed per active station);
+ * app.ts wires it, so stations need not know about billing.
+ */
+export interface StationHooks {
+  /** Called after a station was activated, deactivated or added active; `changeId` names this one change. */
+  activeStationsChanged(tenantId: string, changeId: string): Promise<unknown>;
+  logger: Pick<Logger, 'warn'>;
+}
+
+/** The station change is already saved: a payment service that fails or is slow must not undo or fail it. */
+async function tellActiveStationsChanged(hooks: StationHooks, tenantId: string): Promise<void> {
+  try {
+    await hooks.activeStationsChanged(tenantId, randomUUID());
+  } catch (error) {
+    hooks.logger.warn({ err: error, tenantId }, 'the plan did not follow a station change; the daily sweep sets it again');
+  }
+}
 
 type WheelRow = Awaited<ReturnType<typeof repo.currentWheels>>[number];
 
@@ -90,17 +110,19 @@ export async function requireStation(ctx: RinkContext, stationId: string) {
   return found;
 }
 
-export async function addStation(ctx: RinkContext, input: StationInput): Promise<StationRow> {
+export async function addStation(ctx: RinkContext, hooks: StationHooks, input: StationInput): Promise<StationRow> {
   if (await repo.stationNameTaken(ctx.tenantId, input.name)) throw AppError.field('name', 'Another station has this name');
   const id = randomUUID();
   await repo.createStation(ctx.tenantId, { ...input, id });
+  if (input.status === 'active') await tellActiveStationsChanged(hooks, ctx.tenantId);
   return stationRowOf(ctx, id);
 }
 
-export async function changeStation(ctx: RinkContext, stationId: string, input: StationInput): Promise<StationRow> {
-  await requireStation(ctx, stationId);
+export async function changeStation(ctx: RinkContext, hooks: StationHooks, stationId: string, input: StationInput): Promise<StationRow> {
+  const before = await requireStation(ctx, stationId);
   if (await repo.stationNameTaken(ctx.tenantId, input.name, stationId)) throw AppError.field('name', 'Another station has this name');
   await repo.updateStation(ctx.tenantId, stationId, input);
+  if ((before.status === 'active') !== (input.status === 'active')) await tellActiveStationsChanged(hooks, ctx.tenantId);
   return stationRowOf(ctx, stationId);
 }
 

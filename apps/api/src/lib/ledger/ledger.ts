@@ -32,8 +32,21 @@ function membershipBlocked(lot: repo.LotWithContext, now: Date): boolean {
   return lot.membershipState === 'blocked' || graceLapsed(lot.membershipState, lot.membershipGraceUntil, now);
 }
 
-const redeemable = (lot: repo.LotWithContext, now: Date) =>
-  lot.remaining > 0 && (lot.expiresAt === null || lot.expiresAt > now) && !membershipBlocked(lot, now);
+/**
+ * After a failed renewal the last paid period's credits stay usable until the grace ends, though their period is
+ * over (product.md, "Selling and billing": a grace period, then redemption blocked).
+ */
+function usableUntil(lot: repo.LotWithContext, now: Date): Date | null {
+  const grace = lot.membershipState === 'past_due' ? lot.membershipGraceUntil : null;
+  return grace && grace > now && lot.expiresAt !== null && lot.expiresAt < grace ? grace : lot.expiresAt;
+}
+
+const asUsableLot = (l: repo.LotWithContext, now: Date): Lot => ({ ...asLot(l), expiresAt: usableUntil(l, now) });
+
+const redeemable = (lot: repo.LotWithContext, now: Date) => {
+  const until = usableUntil(lot, now);
+  return lot.remaining > 0 && (until === null || until > now) && !membershipBlocked(lot, now);
+};
 
 // ---- accounts -----------------------------------------------------------------------------------------------
 
@@ -59,8 +72,8 @@ export async function balanceOf(s: Scope, accountIds: string[], now = new Date()
   const lots = await repo.lotsOf(s, accountIds);
   const usable = lots.filter((l) => redeemable(l, now));
   return {
-    credits: creditBalance(usable.map(asLot), now),
-    valueMinor: deferredRevenueMinor(lots.filter((l) => l.remaining > 0).map(asLot), now),
+    credits: creditBalance(usable.map((l) => asUsableLot(l, now)), now),
+    valueMinor: deferredRevenueMinor(lots.filter((l) => l.remaining > 0).map((l) => asUsableLot(l, now)), now),
     lots: lots
       .filter((l) => l.remaining > 0 || (l.expiresAt !== null && l.expiresAt > new Date(now.getTime() - 90 * 86_400_000)))
       .map((l) => ({
@@ -185,9 +198,12 @@ export async function addLot(
 export function redeem(s: Scope, input: { accountId: string; key: string; actor: Actor }): Promise<Operation> {
   return operate(s, input.accountId, input.key, input.actor, ({ lots, now }) => {
     const usable = lots.filter((l) => redeemable(l, now));
-    const chosen = lotToRedeem(usable.map(asLot), now);
+    const chosen = lotToRedeem(usable.map((l) => asUsableLot(l, now)), now);
     const lot = chosen && usable.find((l) => l.id === chosen.id);
-    if (!lot) throw new AppError('insufficient_credits', 'No credits left on this account');
+    if (!lot) {
+      const held = lots.some((l) => l.remaining > 0 && membershipBlocked(l, now));
+      throw new AppError('insufficient_credits', held ? 'The membership’s payment failed and its grace has run out: its credits are kept, and usable again once it is paid' : 'No credits left on this account');
+    }
     return [{ lot, kind: 'redeem', credits: -1 }];
   });
 }
@@ -198,7 +214,7 @@ function takeSteps(lots: repo.LotWithContext[], now: Date, credits: number, kind
   const steps: Step[] = [];
   let left = credits;
   while (left > 0) {
-    const chosen = lotToRedeem(usable.map(asLot), now);
+    const chosen = lotToRedeem(usable.map((l) => asUsableLot(l, now)), now);
     const lot = chosen && usable.find((l) => l.id === chosen.id);
     if (!lot) throw new AppError('insufficient_credits', `Only ${credits - left} credit${credits - left === 1 ? '' : 's'} available`);
     const n = Math.min(left, lot.remaining);

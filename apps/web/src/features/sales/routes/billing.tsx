@@ -95,9 +95,9 @@ export function Component() {
               <Stat label="Fee on sales" value={feePercent(billing.data.plan.feeBps)} />
             </dl>
             <Alert>{planNav.problem}</Alert>
-            {manage && ['none', 'canceled', 'read_only'].includes(billing.data.plan.state) ? (
+            {manage && ['none', 'canceled', 'read_only', 'past_due'].includes(billing.data.plan.state) ? (
               <Button busy={plan.isPending} onClick={() => void planNav.go(() => plan.mutateAsync())}>
-                Start plan
+                {billing.data.plan.state === 'past_due' || billing.data.plan.state === 'read_only' ? 'Pay the plan with another card' : 'Start plan'}
               </Button>
             ) : null}
           </Card>

@@ -1,0 +1,1 @@
+ALTER TABLE `report_refresh` DROP PRIMARY KEY, ADD PRIMARY KEY(`tenant_id`);
