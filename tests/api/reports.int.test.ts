@@ -1,9 +1,10 @@
 import { eq } from 'drizzle-orm';
-import { levelReading, ticket } from '@rinkwright/db';
+import { levelReading, scoped, ticket } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { createSharpening, createStation, createTicket } from '@rinkwright/db/testing';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { refreshReports } from '../../apps/api/src/features/reports/refresh';
+import * as ledger from '../../apps/api/src/lib/ledger/ledger';
 import { buildTestApp, type Client } from '../support/app';
 import { addProduct, redeemPath } from '../support/billing';
 import { createDesk, logPair, takeIn, write, type Desk } from '../support/desk';
@@ -152,6 +153,37 @@ describe('money and the summaries kept current', () => {
     // A full rebuild gives the same figures as the refreshes that came before it.
     await refreshReports(desk.world.id, { full: true });
     expect((await manager.get(`/api/rinks/${desk.world.slug}/reports/throughput?${period}`)).body.totals.pairs).toBe(4);
+  });
+});
+
+describe('league usage', () => {
+  it('gives each team its allocation, what its players used and what is left', async () => {
+    const leagueManager = await api.signIn(desk.world.staff.league_manager.email, PASSWORD);
+    const technician = await api.signIn(desk.world.staff.technician.email, PASSWORD);
+    const made = await leagueManager.post(`/api/rinks/${desk.world.slug}/leagues`).send({ name: 'Report League', season: '2026–27' });
+    const leagueId = made.body.league.id as string;
+    await leagueManager.post(`/api/rinks/${desk.world.slug}/leagues/${leagueId}/roster`).send({ csv: `team,name,email\nGulls,Ada Brightwater,${uniqueEmail('ada')}\nPilots,Cy Marrow,${uniqueEmail('cy')}\n` });
+    // 20 credits in the pool, as a league pack would bring them.
+    const s = scoped(desk.world.id);
+    const pool = await ledger.poolAccount(s, leagueId);
+    await ledger.addLot(s, { accountId: pool.id, key: `pool:${leagueId}`, actor: { userId: null, source: 'league', sourceId: leagueId }, kind: 'purchase', lot: { origin: 'purchase', credits: 20, priceMinor: 18_000 } });
+    const teams = (await leagueManager.get(`/api/rinks/${desk.world.slug}/leagues/${leagueId}`)).body.teams as { id: string; name: string }[];
+    const gulls = teams.find((t) => t.name === 'Gulls')!;
+    const pilots = teams.find((t) => t.name === 'Pilots')!;
+    expect((await write(leagueManager, `/api/rinks/${desk.world.slug}/leagues/${leagueId}/allocations`, { teamId: gulls.id, credits: 8 })).status).toBe(201);
+    expect((await write(leagueManager, `/api/rinks/${desk.world.slug}/leagues/${leagueId}/allocations`, { teamId: pilots.id, credits: 5 })).status).toBe(201);
+    // Three standard pairs taken in on the Gulls' allocation: three credits used.
+    expect((await takeIn(technician, desk, 3, { payment: 'allocation', teamId: gulls.id })).pairs).toHaveLength(3);
+
+    const today = (await manager.get(`/api/rinks/${desk.world.slug}/reports`)).body.today as string;
+    const res = await leagueManager.get(`/api/rinks/${desk.world.slug}/reports/leagues?from=${today}&to=${today}`);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.tables.teams.filter((t: { leagueId: string }) => t.leagueId === leagueId)).toEqual([
+      { leagueId, league: 'Report League', teamId: gulls.id, team: 'Gulls', allocated: 8, usedInPeriod: 3, used: 3, remaining: 5 },
+      { leagueId, league: 'Report League', teamId: pilots.id, team: 'Pilots', allocated: 5, usedInPeriod: 0, used: 0, remaining: 5 },
+    ]);
+    const earlier = await leagueManager.get(`/api/rinks/${desk.world.slug}/reports/leagues?${period}`);
+    expect(earlier.body.tables.teams.find((t: { teamId: string }) => t.teamId === gulls.id)).toMatchObject({ usedInPeriod: 0, used: 3 });
   });
 });
 
