@@ -24,10 +24,10 @@ describe('platform admin routes', () => {
   });
 
   it('answers 401 signed out and 404 to every rink role, as if the route did not exist', async () => {
+    const agents = await Promise.all(Object.values(rink.staff).map(async (staffer) => ({ staffer, agent: await app.signIn(staffer.email, staffer.password) })));
     for (const route of platformRoutes) {
       expect((await app.client()[route.method](route.path)).status).toBe(401);
-      for (const staffer of Object.values(rink.staff)) {
-        const agent = await app.signIn(staffer.email, staffer.password);
+      for (const { staffer, agent } of agents) {
         const response = await agent[route.method](route.path);
         expect(response.status, `${staffer.role} on ${route.path}`).toBe(404);
         expect(response.body.error.code).toBe('not_found');
