@@ -96,8 +96,7 @@ export async function findRinkByConnectedAccount(accountId: string) {
   return rows[0]?.rinkId;
 }
 
-/** The rink's plan state, read on every write to a rink: a rink whose plan went unpaid past its grace is read-only. */
-/** The rink's standing with the platform: its plan's state and grace, and whether the platform suspended it. */
+/** The rink's standing with the platform, read on every rink request: its plan's state and grace, and whether the platform suspended it. */
 export async function findPlanState(rinkId: string) {
   const rows = await currentDb()
     .select({ planState: rinkBilling.planState, graceUntil: rinkBilling.planGraceUntil, suspendedAt: rinkBilling.suspendedAt, suspendedReason: rinkBilling.suspendedReason })

@@ -32,6 +32,8 @@ export async function sweepRink(rinkId: string, deps: WorkerDeps, now = new Date
   await lapseGrace(s, now);
   const plan = await resyncPlanQuantity(s, deps, now);
   await s.remove(idempotencyKey, lt(idempotencyKey.createdAt, new Date(now.getTime() - 2 * DAY)));
+  // Rows whose transaction committed long after they were stamped are picked up here at the latest.
+  await refreshReports(rinkId, { since: new Date(now.getTime() - 2 * DAY) });
   return { expired, reminders, plan };
 }
 

@@ -207,17 +207,46 @@ const workSums = {
   firstAbsNm: sum(reportWorkHour.firstAbsNm),
 };
 type WorkSums = { [K in keyof typeof workSums]: number };
-const numbers = <T extends Record<string, unknown>>(row: T) => Object.fromEntries(Object.entries(row).map(([k, v]) => [k, typeof v === 'string' && k !== 'day' && !k.endsWith('Id') ? n(v) : v])) as T;
 
-/** Work per station, technician, day and hour; staffed hours are counted from these rows by the service. */
-export async function workRows(s: Scope, f: SummaryFilter) {
-  const rows = await s.findJoined(reportWorkHour, {
-    fields: { day: reportWorkHour.day, hour: reportWorkHour.hour, stationId: reportWorkHour.stationId, technicianId: reportWorkHour.technicianId, ...workSums },
+export type WorkGrouping = 'all' | 'station' | 'technician' | 'day' | 'weekdayHour';
+
+/**
+ * Work summed by one grouping. Staffed hours are the distinct (day, hour, technician) with a pair, counted in
+ * the database so a long period never brings its hour rows over the wire.
+ */
+export async function workBy(s: Scope, f: SummaryFilter, by: WorkGrouping) {
+  const w = reportWorkHour;
+  const weekday = sql<number>`weekday(${w.day}) + 1`.mapWith(Number);
+  const keys: Record<string, AnyMySqlColumn | SQL> = {
+    all: {},
+    station: { stationId: w.stationId },
+    technician: { technicianId: w.technicianId },
+    day: { day: w.day },
+    weekdayHour: { weekday, hour: w.hour },
+  }[by];
+  const groupBy = { all: [], station: [w.stationId], technician: [w.technicianId], day: [w.day], weekdayHour: [sql`weekday(${w.day})`, w.hour] }[by];
+  const rows = await s.findJoined(w, {
+    fields: {
+      ...keys,
+      ...workSums,
+      staffedHours: sql<number>`count(distinct case when ${w.pairs} > 0 then concat_ws('|', ${w.day}, ${w.hour}, ${w.technicianId}) end)`.mapWith(Number),
+    },
     joins: [],
     where: workWhere(f),
-    groupBy: [reportWorkHour.day, reportWorkHour.hour, reportWorkHour.stationId, reportWorkHour.technicianId],
+    groupBy,
   });
-  return rows.map((r) => numbers(r) as typeof r & WorkSums);
+  return rows.map((r) => {
+    const row = r as Record<string, unknown>;
+    return {
+      stationId: (row.stationId as string | undefined) ?? '',
+      technicianId: (row.technicianId as string | undefined) ?? '',
+      day: (row.day as string | undefined) ?? '',
+      weekday: n(row.weekday),
+      hour: n(row.hour),
+      staffedHours: n(row.staffedHours),
+      ...(Object.fromEntries(Object.keys(workSums).map((k) => [k, n(row[k])])) as WorkSums),
+    };
+  });
 }
 
 /** Pairs and passes of each wheel per local day (a wheel's life, and the passes before each of its dressings). */

@@ -14,7 +14,7 @@ import {
 import { reportScope, scoped, type Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
-import { localClock, nextDay, weekdayOf } from './local-time';
+import { localClock, nextDay } from './local-time';
 import { refreshReports } from './refresh';
 import * as repo from './repository';
 
@@ -41,22 +41,17 @@ export function histogramPercentile(buckets: { bucket: number; tickets: number }
   return null;
 }
 
-/** Staffed hours: the local hours in which a technician logged at least one pair (one hour per technician). */
-const staffedHours = (rows: { day: string; hour: number; technicianId: string; pairs: number }[]) =>
-  new Set(rows.filter((r) => r.pairs > 0).map((r) => `${r.day}|${r.hour}|${r.technicianId}`)).size;
-
 async function throughputTotals(s: Scope, period: Period, filters: Filters) {
   const f = { from: period.from, to: period.to, stationId: filters.stationId, technicianId: filters.technicianId };
-  const [work, turnaround] = await Promise.all([repo.workRows(s, f), repo.turnaroundRows(s, f)]);
-  const pairs = work.reduce((n, r) => n + r.pairs, 0);
-  const hours = staffedHours(work);
+  const [[work], turnaround] = await Promise.all([repo.workBy(s, f, 'all'), repo.turnaroundRows(s, f)]);
+  const pairs = work?.pairs ?? 0;
+  const hours = work?.staffedHours ?? 0;
   const ready = turnaround.reduce((n, r) => n + r.tickets, 0);
   const onTime = turnaround.reduce((n, r) => n + r.onTime, 0);
   const byBucket = new Map<number, number>();
   for (const r of turnaround) byBucket.set(r.bucket, (byBucket.get(r.bucket) ?? 0) + r.tickets);
   const buckets = [...byBucket].map(([bucket, tickets]) => ({ bucket, tickets }));
   return {
-    work,
     turnaround,
     totals: {
       pairs,
@@ -70,42 +65,29 @@ async function throughputTotals(s: Scope, period: Period, filters: Filters) {
   };
 }
 
+const perHour = (r: { pairs: number; staffedHours: number }) => ({ pairs: r.pairs, staffedHours: r.staffedHours, pairsPerStaffedHour: round2(ratio(r.pairs, r.staffedHours)) });
+
 export async function throughput(s: Scope, q: ReportQuery): Promise<ThroughputReport> {
-  const [current, compare, stations, people] = await Promise.all([
+  const f = { from: q.from, to: q.to, stationId: q.stationId, technicianId: q.technicianId };
+  const [current, compare, stations, people, byStation, byTechnician, byDay, byHour] = await Promise.all([
     throughputTotals(s, q, q),
     q.compareFrom && q.compareTo ? throughputTotals(s, { from: q.compareFrom, to: q.compareTo }, q) : null,
     repo.stationsOf(s),
     repo.techniciansOf(s),
+    repo.workBy(s, f, 'station'),
+    repo.workBy(s, f, 'technician'),
+    repo.workBy(s, f, 'day'),
+    repo.workBy(s, f, 'weekdayHour'),
   ]);
   const stationName = new Map(stations.map((st) => [st.id, st.name]));
   const personName = new Map(people.map((p) => [p.id, p.name]));
-  const group = <K extends 'stationId' | 'technicianId'>(field: K) => {
-    const groups = new Map<string, typeof current.work>();
-    for (const r of current.work) {
-      const list = groups.get(r[field]);
-      if (list) list.push(r);
-      else groups.set(r[field], [r]);
-    }
-    return [...groups].map(([id, rows]) => {
-      const pairs = rows.reduce((n, r) => n + r.pairs, 0);
-      const hours = staffedHours(rows);
-      return { id, pairs, staffedHours: hours, pairsPerStaffedHour: round2(ratio(pairs, hours)) };
-    });
-  };
   const days = new Map<string, { pairs: number; ticketsReady: number; onTime: number }>();
   for (let d = q.from; d <= q.to; d = nextDay(d)) days.set(d, { pairs: 0, ticketsReady: 0, onTime: 0 });
-  for (const r of current.work) days.get(r.day)!.pairs += r.pairs;
+  for (const r of byDay) days.get(r.day)!.pairs += r.pairs;
   for (const r of current.turnaround) {
     const day = days.get(r.day)!;
     day.ticketsReady += r.tickets;
     day.onTime += r.onTime;
-  }
-  const heat = new Map<string, number>();
-  const weekdays = new Map<string, number>();
-  for (const r of current.work) {
-    const weekday = weekdays.get(r.day) ?? weekdayOf(r.day);
-    weekdays.set(r.day, weekday);
-    heat.set(`${weekday}|${r.hour}`, (heat.get(`${weekday}|${r.hour}`) ?? 0) + r.pairs);
   }
   return {
     period: { from: q.from, to: q.to },
@@ -113,18 +95,11 @@ export async function throughput(s: Scope, q: ReportQuery): Promise<ThroughputRe
     compare: compare && q.compareFrom && q.compareTo ? { period: { from: q.compareFrom, to: q.compareTo }, totals: compare.totals } : null,
     tables: {
       byDay: [...days].map(([day, v]) => ({ day, ...v })),
-      byStation: group('stationId')
-        .map(({ id, ...v }) => ({ stationId: id, station: stationName.get(id) ?? 'Removed station', ...v }))
-        .sort((a, b) => a.station.localeCompare(b.station)),
-      byTechnician: group('technicianId')
-        .map(({ id, ...v }) => ({ technicianId: id, technician: personName.get(id) ?? 'Former staff', ...v }))
+      byStation: byStation.map((r) => ({ stationId: r.stationId, station: stationName.get(r.stationId) ?? 'Removed station', ...perHour(r) })).sort((a, b) => a.station.localeCompare(b.station)),
+      byTechnician: byTechnician
+        .map((r) => ({ technicianId: r.technicianId, technician: personName.get(r.technicianId) ?? 'Former staff', ...perHour(r) }))
         .sort((a, b) => a.technician.localeCompare(b.technician)),
-      byHour: [...heat]
-        .map(([k, pairs]) => {
-          const [weekday, hour] = k.split('|').map(Number) as [number, number];
-          return { weekday, hour, pairs };
-        })
-        .sort((a, b) => a.weekday - b.weekday || a.hour - b.hour),
+      byHour: byHour.map((r) => ({ weekday: r.weekday, hour: r.hour, pairs: r.pairs })).sort((a, b) => a.weekday - b.weekday || a.hour - b.hour),
     },
   };
 }
@@ -156,8 +131,8 @@ export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<Q
   const clock = localClock(zone);
   const range = { start: clock.startOf(q.from), end: clock.startOf(nextDay(q.to)) };
   const [work, compareWork, stations, drift] = await Promise.all([
-    repo.workRows(s, { from: q.from, to: q.to, stationId: q.stationId, technicianId: q.technicianId }),
-    q.compareFrom && q.compareTo ? repo.workRows(s, { from: q.compareFrom, to: q.compareTo, stationId: q.stationId, technicianId: q.technicianId }) : null,
+    repo.workBy(s, { from: q.from, to: q.to, stationId: q.stationId, technicianId: q.technicianId }, 'station'),
+    q.compareFrom && q.compareTo ? repo.workBy(s, { from: q.compareFrom, to: q.compareTo, stationId: q.stationId, technicianId: q.technicianId }, 'all') : null,
     repo.stationsOf(s),
     repo.driftRows(s, { from: q.from, to: q.to, stationId: q.stationId }),
   ]);
