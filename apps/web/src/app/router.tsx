@@ -42,6 +42,16 @@ export function createAppRouter(client: QueryClient) {
             { path: 'portal/:slug', lazy: () => import('../features/portal/routes/portal-rink') },
             { path: 'platform', lazy: () => import('../features/platform/routes/platform-rinks') },
             {
+              // The console's rink page hands its rink to the report screens, which belong to the reports feature.
+              path: 'platform/rinks/:rinkId',
+              lazy: () => import('../features/platform/routes/platform-rink'),
+              children: [
+                { index: true, lazy: () => import('../features/reports/routes/platform-reports') },
+                { path: 'reports', lazy: () => import('../features/reports/routes/platform-reports') },
+                { path: 'reports/:report', lazy: () => import('../features/reports/routes/platform-report') },
+              ],
+            },
+            {
               path: 'rinks/:rinkSlug',
               element: <RinkLayout />,
               errorElement: <RouteError />,

@@ -3,7 +3,7 @@ import { useMemo, type ReactNode } from 'react';
 import { REPORT_TABLES, type ColumnFormat, type ReportColumn, type ReportName, type ReportQuery } from '@rinkwright/core';
 import { buttonClass } from '../../../components/ui/button';
 import { DataTable } from '../../../components/ui/data-table';
-import { reportCsvHref } from '../api/keys';
+import { reportCsvHref, type ReportSource } from '../api/keys';
 import { columnLabel, formatCell, type CellContext } from './numbers';
 
 type TableName<R extends ReportName> = keyof (typeof REPORT_TABLES)[R] & string;
@@ -12,7 +12,7 @@ const NO_RENDERERS = {};
 const NUMERIC: ReadonlySet<ColumnFormat> = new Set(['int', 'decimal', 'share', 'minor', 'nm']);
 
 export interface TableSource {
-  slug: string;
+  reports: ReportSource;
   query: ReportQuery;
   cells: CellContext;
 }
@@ -62,7 +62,7 @@ export function ReportSection<R extends ReportName, Row extends object>({
       }),
     [spec, render, cells],
   );
-  const href = reportCsvHref(source.slug, report, table, source.query);
+  const href = reportCsvHref(source.reports, report, table, source.query);
   const tableView = <DataTable data={rows} columns={columns} caption={spec.title} empty={empty} />;
   return (
     <section className="rounded-xl border border-rule bg-white p-5 shadow-sm" aria-label={spec.title}>
