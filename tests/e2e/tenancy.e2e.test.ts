@@ -30,7 +30,7 @@ describe('one rink never sees another', () => {
     await page.waitForURL('**/rinks/ice-harbor');
     const sections = page.getByRole('navigation', { name: 'Ice Harbor sections' });
     await sections.waitFor();
-    expect(await sections.getByRole('link').allTextContents()).toEqual(['Overview', 'Counter', 'Stations', 'Services', 'Products', 'Leagues', 'Billing', 'Staff', 'Settings']);
+    expect(await sections.getByRole('link').allTextContents()).toEqual(['Overview', 'Counter', 'Stations', 'Services', 'Products', 'Leagues', 'Billing', 'Reports', 'Staff', 'Settings']);
     await sections.getByRole('link', { name: 'Staff' }).click();
     await page.getByRole('cell', { name: 'tech@ice-harbor.test', exact: true }).waitFor();
     await session.shot('staff');
@@ -45,7 +45,7 @@ describe('one rink never sees another', () => {
     const admin = await openSession(browser(), 'platform-admin');
     await signIn(admin, 'admin@rinkwright.test');
     await admin.page.getByRole('link', { name: 'Platform', exact: true }).click();
-    for (const name of ['Ice Harbor', 'North Pond Arena']) await admin.page.getByRole('cell', { name, exact: true }).waitFor();
+    for (const name of ['Ice Harbor', 'North Pond Arena']) await admin.page.getByRole('cell').getByText(name, { exact: true }).waitFor();
     await admin.shot('platform-rinks');
     expectNoProblems(admin);
     await admin.context.close();
