@@ -4,7 +4,6 @@ import type { LotRow, RinkSummary } from '@rinkwright/core';
 import { Button } from '../../../components/ui/button';
 import { DataTable } from '../../../components/ui/data-table';
 import { Alert, Loading } from '../../../components/ui/feedback';
-import { ApiError } from '../../../lib/api-client';
 import { formatCount, formatDate, formatMoney } from '../../../lib/format';
 import { can } from '../../../lib/rink-context';
 import { useBalance } from '../api/get-balance';
@@ -62,7 +61,8 @@ export function BalancePanel({ rink, customerId, customerName }: { rink: RinkSum
           : { tone: 'success', text: `One credit redeemed. ${formatCount(outcome.result.balance)} left.`, balance: outcome.result.balance },
       );
     } catch (error) {
-      setNote({ tone: 'error', text: error instanceof ApiError && error.code === 'insufficient_credits' ? 'No credits left' : error instanceof Error ? error.message : 'Not redeemed' });
+      // The API says why (no credits, or a membership whose grace ran out and whose credits wait for its payment).
+      setNote({ tone: 'error', text: error instanceof Error ? error.message : 'Not redeemed' });
     }
   }
 
