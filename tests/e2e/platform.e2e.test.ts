@@ -90,16 +90,15 @@ describe('the platform console', () => {
     expect(csvCells(lines[0] ?? '')).toEqual(await headerLabels(byStation));
     expect(lines.length - 1).toBe(3);
 
-    // The links between reports stay in the console; readings are written in the unit chosen.
+    // The links between reports stay in the console.
     await page.getByRole('navigation', { name: 'Reports' }).getByRole('link', { name: 'Quality' }).click();
     await page.waitForURL(/\/platform\/rinks\/[^/]+\/reports\/quality$/);
     await page.getByRole('heading', { name: 'Ice Harbor: Quality' }).waitFor();
     const qualityTable = page.getByRole('table', { name: 'First readings by station' });
     await qualityTable.locator('tbody tr').first().waitFor();
+    // Ice Harbor works in inches: readings in thousandths, as on the rink's own screens and in its CSV.
     expect(await headerLabels(qualityTable)).toContain('Mean absolute reading (thou)');
-    await page.getByLabel('Readings in').selectOption('mm');
-    expect(await headerLabels(qualityTable)).toContain('Mean absolute reading (hundredths mm)');
-    await admin.shot('ice-harbor-quality-in-mm');
+    await admin.shot('ice-harbor-quality');
 
     // Back in the console, the rink's volume, read from the report summaries: the worker brings them up to date on
     // its tick and every report read does too, so after the read above Ice Harbor's are current whatever the timing.

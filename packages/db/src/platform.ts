@@ -12,6 +12,7 @@ export async function listRinksWithCounts() {
       name: rink.name,
       timeZone: rink.timeZone,
       currency: rink.currency,
+      unitPreference: rink.unitPreference,
       createdAt: rink.createdAt,
       members: sql<number>`(select count(*) from ${member} where ${eq(member.organizationId, rink.id)})`.mapWith(Number),
       customers: sql<number>`(select count(*) from ${customer} where ${eq(customer.tenantId, rink.id)})`.mapWith(Number),

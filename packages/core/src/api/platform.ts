@@ -7,6 +7,7 @@ export const platformRinkRow = z.object({
   name: z.string(),
   timeZone: z.string(),
   currency: z.string(),
+  unitPreference: z.enum(['in', 'mm']),
   members: z.number().int(),
   customers: z.number().int(),
   createdAt: z.iso.datetime(),

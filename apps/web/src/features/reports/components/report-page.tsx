@@ -119,11 +119,9 @@ export interface ReportPageProps {
   unit: UnitPreference;
   /** The page's heading for a report's label. */
   title: (label: string) => string;
-  /** Controls beside the heading. */
-  actions?: ReactNode;
 }
 
-function LoadedReportPage({ reports, report, allowed, unit, title, actions, choices }: ReportPageProps & { choices: ReportFilterChoices }) {
+function LoadedReportPage({ reports, report, allowed, unit, title, choices }: ReportPageProps & { choices: ReportFilterChoices }) {
   const [params, setParams] = useSearchParams();
   // Money and times are written in the rink's own currency and time zone, which the filter choices carry.
   const cells = useMemo<CellContext>(() => ({ currency: choices.currency, unit, timeZone: choices.timeZone }), [choices.currency, choices.timeZone, unit]);
@@ -138,7 +136,7 @@ function LoadedReportPage({ reports, report, allowed, unit, title, actions, choi
   const Body = BODY[report];
   return (
     <div className="space-y-6">
-      <PageHeader title={title(REPORT_LABEL[report])} subtitle={parsed.ok ? `${REPORT_BLURB[report]} ${describe(parsed.query, choices)}` : REPORT_BLURB[report]} actions={actions} />
+      <PageHeader title={title(REPORT_LABEL[report])} subtitle={parsed.ok ? `${REPORT_BLURB[report]} ${describe(parsed.query, choices)}` : REPORT_BLURB[report]} />
       {allowed.length > 1 ? (
         <nav aria-label="Reports" className="-mt-2 flex flex-wrap gap-2">
           {allowed.map((name) => (
