@@ -1,4 +1,4 @@
-import { bigint, date, int, mysqlTable, primaryKey, smallint, varchar } from 'drizzle-orm/mysql-core';
+import { bigint, date, index, int, mysqlTable, primaryKey, smallint, varchar } from 'drizzle-orm/mysql-core';
 import { at, rinkFk, tenantId } from './columns';
 
 // Summary tables the reports read instead of the raw rows. Each is keyed by the rink's local day (its time
@@ -28,8 +28,19 @@ export const reportWorkHour = mysqlTable(
     reruns: int('reruns').notNull(),
     /** Σ |first reading| in nm, for the mean absolute reading. */
     firstAbsNm: bigint('first_abs_nm', { mode: 'number' }).notNull(),
+    /**
+     * Staffed hours as sums, so a report never counts distinct hours: 1 on one row of each (day, hour, technician)
+     * with a pair, and 1 on one row of each (day, hour, station, technician) with a pair.
+     */
+    staffedTotal: int('staffed_total').notNull().default(0),
+    staffedStation: int('staffed_station').notNull().default(0),
   },
-  (t) => [primaryKey({ name: 'report_work_hour_pk', columns: [t.tenantId, t.day, t.hour, t.stationId, t.technicianId, t.wheelId] }), rinkFk('report_work_hour_rink_fk', t.tenantId)],
+  (t) => [
+    primaryKey({ name: 'report_work_hour_pk', columns: [t.tenantId, t.day, t.hour, t.stationId, t.technicianId, t.wheelId] }),
+    // A wheel's life is summed over all its days, whatever the report's period.
+    index('report_work_hour_wheel_idx').on(t.tenantId, t.wheelId, t.day),
+    rinkFk('report_work_hour_rink_fk', t.tenantId),
+  ],
 );
 
 /** Tickets that became ready, per local day of readiness, station and turnaround bucket. */

@@ -76,13 +76,29 @@ async function rebuildDays(s: Scope, clock: LocalClock, run: { first: string; la
     const k = key(day, hour, sh.stationId, sh.technicianId, sh.wheelId);
     let row = work.get(k);
     if (!row) {
-      row = { day, hour, stationId: sh.stationId, technicianId: sh.technicianId, wheelId: sh.wheelId ?? '', pairs: 0, passes: 0, firstReadings: 0, firstTrue: 0, firstFair: 0, firstOff: 0, reruns: 0, firstAbsNm: 0 };
+      row = { day, hour, stationId: sh.stationId, technicianId: sh.technicianId, wheelId: sh.wheelId ?? '', pairs: 0, passes: 0, firstReadings: 0, firstTrue: 0, firstFair: 0, firstOff: 0, reruns: 0, firstAbsNm: 0, staffedTotal: 0, staffedStation: 0 };
       work.set(k, row);
     }
     // A correction replaces an earlier record of the same pair: the pair counts once, the passes of the latest record.
     if (!sh.correctsId) row.pairs += 1;
     if (!corrected.has(sh.id)) row.passes += sh.passes;
     workOf.set(sh.id, row);
+  }
+  // Each staffed hour is marked on exactly one row: once per technician, and once per technician at a station.
+  const staffedBy = new Set<string>();
+  const staffedAt = new Set<string>();
+  for (const row of work.values()) {
+    if (row.pairs === 0) continue;
+    const byTechnician = key(row.day, row.hour, row.technicianId);
+    const atStation = key(row.day, row.hour, row.stationId, row.technicianId);
+    if (!staffedBy.has(byTechnician)) {
+      staffedBy.add(byTechnician);
+      row.staffedTotal = 1;
+    }
+    if (!staffedAt.has(atStation)) {
+      staffedAt.add(atStation);
+      row.staffedStation = 1;
+    }
   }
   const stationOfSharpening = new Map(sharpenings.map((sh) => [sh.id, sh.stationId]));
   for (const r of readings) {

@@ -211,8 +211,8 @@ type WorkSums = { [K in keyof typeof workSums]: number };
 export type WorkGrouping = 'all' | 'station' | 'technician' | 'day' | 'weekdayHour';
 
 /**
- * Work summed by one grouping. Staffed hours are the distinct (day, hour, technician) with a pair, counted in
- * the database so a long period never brings its hour rows over the wire.
+ * Work summed by one grouping, in the database, so a long period never brings its hour rows over the wire. Staffed
+ * hours are the distinct (day, hour, technician) with a pair, summed from the rows the refresh marked.
  */
 export async function workBy(s: Scope, f: SummaryFilter, by: WorkGrouping) {
   const w = reportWorkHour;
@@ -229,7 +229,8 @@ export async function workBy(s: Scope, f: SummaryFilter, by: WorkGrouping) {
     fields: {
       ...keys,
       ...workSums,
-      staffedHours: sql<number>`count(distinct case when ${w.pairs} > 0 then concat_ws('|', ${w.day}, ${w.hour}, ${w.technicianId}) end)`.mapWith(Number),
+      // Within one station an hour counts per technician there; across stations once per technician.
+      staffedHours: by === 'station' || f.stationId ? sum(w.staffedStation) : sum(w.staffedTotal),
     },
     joins: [],
     where: workWhere(f),

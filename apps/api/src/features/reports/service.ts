@@ -145,12 +145,13 @@ export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<Q
     byStation.push({ stationId: st.id, station: st.name, ...qualityOf(rows), driftAlertsRaised: alerts.raised, driftAlertsCleared: alerts.cleared });
   }
   const adjustments = await repo.adjustmentsIn(s, range, q.stationId);
-  const leveling = [];
-  for (const a of adjustments) {
-    const st = stations.find((x) => x.id === a.stationId);
-    const [before, after] = await Promise.all([repo.firstReadingsAround(s, a.stationId, a.at, 'before', EFFECT_READINGS), repo.firstReadingsAround(s, a.stationId, a.at, 'after', EFFECT_READINGS)]);
-    leveling.push({ stationId: a.stationId, station: st?.name ?? 'Removed station', at: a.at.toISOString(), amountMilli: a.amountMilli, unit: st?.adjustUnit ?? 'turns', meanBeforeNm: mean(before.map((r) => r.readingNm)), meanAfterNm: mean(after.map((r) => r.readingNm)) });
-  }
+  const leveling = await Promise.all(
+    adjustments.map(async (a) => {
+      const st = stations.find((x) => x.id === a.stationId);
+      const [before, after] = await Promise.all([repo.firstReadingsAround(s, a.stationId, a.at, 'before', EFFECT_READINGS), repo.firstReadingsAround(s, a.stationId, a.at, 'after', EFFECT_READINGS)]);
+      return { stationId: a.stationId, station: st?.name ?? 'Removed station', at: a.at.toISOString(), amountMilli: a.amountMilli, unit: st?.adjustUnit ?? 'turns', meanBeforeNm: mean(before.map((r) => r.readingNm)), meanAfterNm: mean(after.map((r) => r.readingNm)) };
+    }),
+  );
   const wheels = (await repo.wheelsIn(s, range)).filter((w) => !q.stationId || w.stationId === q.stationId);
   const [usage, events] = await Promise.all([repo.wheelDays(s, wheels.map((w) => w.id)), repo.wheelEventsOf(s, wheels.map((w) => w.id))]);
   const wheelRows = wheels.map((w) => {
