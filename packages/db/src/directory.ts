@@ -7,9 +7,19 @@ import { customer, invitation, jobRun, member, rink, rinkBilling, user } from '.
 // I in?) or from a rink slug (which tenant is this URL?). Each is keyed by the caller's own user id or by the
 // slug the tenant middleware resolves, so none of them lets a caller name another rink's rows.
 
+/**
+ * The rink of a slug with its standing with the platform (its plan's state and grace, and whether the platform
+ * suspended it), in one read: every rink request needs both.
+ */
 export async function findRinkBySlug(slug: string) {
-  const rows = await currentDb().select().from(rink).where(eq(rink.slug, slug)).limit(1);
-  return rows[0];
+  const rows = await currentDb()
+    .select({ rink, planState: rinkBilling.planState, graceUntil: rinkBilling.planGraceUntil, suspendedAt: rinkBilling.suspendedAt, suspendedReason: rinkBilling.suspendedReason })
+    .from(rink)
+    .leftJoin(rinkBilling, eq(rinkBilling.tenantId, rink.id))
+    .where(eq(rink.slug, slug))
+    .limit(1);
+  const row = rows[0];
+  return row && { ...row.rink, standing: { planState: row.planState, graceUntil: row.graceUntil, suspendedAt: row.suspendedAt, suspendedReason: row.suspendedReason } };
 }
 
 export async function findMembership(userId: string, rinkId: string) {
@@ -94,16 +104,6 @@ export async function findRinkByConnectedAccount(accountId: string) {
     .where(eq(rinkBilling.connectedAccountId, accountId))
     .limit(1);
   return rows[0]?.rinkId;
-}
-
-/** The rink's standing with the platform, read on every rink request: its plan's state and grace, and whether the platform suspended it. */
-export async function findPlanState(rinkId: string) {
-  const rows = await currentDb()
-    .select({ planState: rinkBilling.planState, graceUntil: rinkBilling.planGraceUntil, suspendedAt: rinkBilling.suspendedAt, suspendedReason: rinkBilling.suspendedReason })
-    .from(rinkBilling)
-    .where(eq(rinkBilling.tenantId, rinkId))
-    .limit(1);
-  return rows[0];
 }
 
 /** Every rink's id, for the worker's nightly sweep (each rink is then worked on through its own scope). */

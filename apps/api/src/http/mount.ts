@@ -4,7 +4,6 @@ import type { z } from 'zod';
 import type { Auth } from '../auth';
 import { roleAllows } from '../access';
 import { findCaller, requireCaller, resolveRink } from '../middleware/context';
-import { directory } from '@rinkwright/db';
 import { AppError, fieldsOf } from './errors';
 import { idempotencyKeyOf, once, requestHash, type StoredAnswer } from '../middleware/idempotency';
 import type { RinkContext, Route } from './route';
@@ -31,18 +30,17 @@ async function contextFor(route: Route, auth: Auth, req: Request): Promise<unkno
     }
     case 'rink': {
       const caller = await requireCaller(auth, req);
-      const ctx = await resolveRink(caller, String(req.params.rinkSlug));
+      const { ctx, standing } = await resolveRink(caller, String(req.params.rinkSlug));
       if (route.permission && !roleAllows(ctx.role, route.permission)) {
         throw new AppError('forbidden', 'Your role at this rink does not allow this');
       }
-      const standing = await directory.findPlanState(ctx.tenantId);
       // A rink the platform suspended answers its staff nothing but why, until it is reactivated.
-      if (standing?.suspendedAt) {
+      if (standing.suspendedAt) {
         throw new AppError('suspended', `The platform has suspended this rink${standing.suspendedReason ? `: ${standing.suspendedReason}` : ''}. Contact the platform to have it reactivated.`);
       }
       // An unpaid plan past its grace leaves the rink readable, and only its billing can change (to pay it).
       if (route.method !== 'get' && !route.permission?.billing) {
-        const lapsed = standing && (standing.planState === 'read_only' || graceLapsed(standing.planState, standing.graceUntil, new Date()));
+        const lapsed = standing.planState === 'read_only' || graceLapsed(standing.planState, standing.graceUntil, new Date());
         if (lapsed) throw new AppError('read_only', 'This rink is read-only until its Rinkwright plan is paid');
       }
       return ctx;

@@ -25,12 +25,15 @@ const NOT_FOUND = 'No such rink, or you are not one of its staff';
  * Resolves /api/rinks/:rinkSlug to the caller's membership. A rink the caller is not a member of answers
  * exactly like a rink that does not exist, so nobody can probe for another rink's slugs or ids.
  */
-export async function resolveRink(caller: UserContext, slug: string): Promise<RinkContext> {
+export type RinkStanding = NonNullable<Awaited<ReturnType<typeof directory.findRinkBySlug>>>['standing'];
+
+/** The caller's context at the rink of the slug, and the rink's standing with the platform. */
+export async function resolveRink(caller: UserContext, slug: string): Promise<{ ctx: RinkContext; standing: RinkStanding }> {
   const found = await directory.findRinkBySlug(slug);
   if (!found) throw AppError.notFound(NOT_FOUND);
   const membership = await directory.findMembership(caller.userId, found.id);
   if (!membership || !isStaffRole(membership.role)) throw AppError.notFound(NOT_FOUND);
-  return { ...caller, tenantId: found.id, rinkSlug: found.slug, rinkName: found.name, role: membership.role, memberId: membership.id };
+  return { ctx: { ...caller, tenantId: found.id, rinkSlug: found.slug, rinkName: found.name, role: membership.role, memberId: membership.id }, standing: found.standing };
 }
 
 function isStaffRole(role: string): role is StaffRole {

@@ -38,10 +38,6 @@ export const reportQuery = z
   });
 export type ReportQuery = z.infer<typeof reportQuery>;
 
-/** The platform console's reports take the same filters and, optionally, one rink. */
-export const platformReportQuery = z.intersection(reportQuery, z.object({ rinkId: id.optional() }));
-export type PlatformReportQuery = z.infer<typeof platformReportQuery>;
-
 /** What the report filters offer, and the rink's today in its own time zone (the default period ends there). */
 export const reportFilterChoices = z.object({
   timeZone: z.string(),
@@ -56,6 +52,8 @@ const period = z.object({ from: z.string(), to: z.string() });
 const share = z.number().min(0).max(1).nullable();
 
 // ---- Throughput --------------------------------------------------------------------------------------------
+
+const staffedWork = z.object({ pairs: z.number().int(), staffedHours: z.number().int(), pairsPerStaffedHour: z.number().nullable() });
 
 export const throughputTotals = z.object({
   pairs: z.number().int(),
@@ -72,8 +70,8 @@ export const throughputReport = z.object({
   compare: z.object({ period, totals: throughputTotals }).nullable(),
   tables: z.object({
     byDay: z.array(z.object({ day: z.string(), pairs: z.number().int(), ticketsReady: z.number().int(), onTime: z.number().int() })),
-    byStation: z.array(z.object({ stationId: z.string(), station: z.string(), pairs: z.number().int(), staffedHours: z.number().int(), pairsPerStaffedHour: z.number().nullable() })),
-    byTechnician: z.array(z.object({ technicianId: z.string(), technician: z.string(), pairs: z.number().int(), staffedHours: z.number().int(), pairsPerStaffedHour: z.number().nullable() })),
+    byStation: z.array(staffedWork.extend({ stationId: z.string(), station: z.string() })),
+    byTechnician: z.array(staffedWork.extend({ technicianId: z.string(), technician: z.string() })),
     /** weekday 1 = Monday … 7 = Sunday (ISO 8601), hour 0–23 local. */
     byHour: z.array(z.object({ weekday: z.number().int().min(1).max(7), hour: z.number().int().min(0).max(23), pairs: z.number().int() })),
   }),
@@ -96,18 +94,7 @@ export const qualityReport = z.object({
   compare: z.object({ period, totals: qualityTotals }).nullable(),
   tables: z.object({
     byStation: z.array(
-      z.object({
-        stationId: z.string(),
-        station: z.string(),
-        firstReadings: z.number().int(),
-        trueShare: share,
-        fairShare: share,
-        offShare: share,
-        reRunRate: share,
-        meanAbsReadingNm: z.number().nullable(),
-        driftAlertsRaised: z.number().int(),
-        driftAlertsCleared: z.number().int(),
-      }),
+      qualityTotals.extend({ stationId: z.string(), station: z.string(), driftAlertsRaised: z.number().int(), driftAlertsCleared: z.number().int() }),
     ),
     leveling: z.array(
       z.object({

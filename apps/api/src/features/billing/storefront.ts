@@ -12,7 +12,7 @@ import { checkoutStatus, customerByEmail, startCheckout, type SalesDeps } from '
 async function rinkOf(slug: string) {
   const rink = await directory.findRinkBySlug(slug);
   // A suspended rink's public page is gone until the platform reactivates it.
-  if (!rink || (await directory.findPlanState(rink.id))?.suspendedAt) throw AppError.notFound('No such rink');
+  if (!rink || rink.standing.suspendedAt) throw AppError.notFound('No such rink');
   return rink;
 }
 

@@ -25,8 +25,6 @@ export function localClock(zone: string): LocalClock {
 }
 
 export const nextDay = (day: string) => DateTime.fromISO(day, { zone: 'UTC' }).plus({ days: 1 }).toISODate()!;
-/** ISO 8601 weekday of a day: 1 = Monday … 7 = Sunday. */
-export const weekdayOf = (day: string) => DateTime.fromISO(day, { zone: 'UTC' }).weekday;
 
 /** Sorted days grouped into runs of consecutive days. */
 export function consecutiveRuns(days: Iterable<string>): { first: string; last: string }[] {

@@ -27,6 +27,7 @@ import {
   wheel,
   wheelEvent,
   member,
+  isDuplicateKey,
   type Scope,
 } from '@rinkwright/db';
 
@@ -46,7 +47,7 @@ export async function lockWatermark(s: Scope): Promise<Date | null> {
   if (row) return row.through;
   await s.insert(reportRefresh, { through: new Date(0), refreshedAt: new Date(0) }).catch((error: unknown) => {
     // Another refresh made the row a moment ago: its lock below waits for that refresh to finish.
-    if (!(error instanceof Error && /Duplicate entry/.test(error.message))) throw error;
+    if (!isDuplicateKey(error)) throw error;
   });
   await s.lock(reportRefresh, s.filter(reportRefresh));
   return null;

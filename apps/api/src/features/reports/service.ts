@@ -28,7 +28,7 @@ const ratio = (part: number, whole: number) => (whole > 0 ? part / whole : null)
 const round2 = (v: number | null) => (v === null ? null : Math.round(v * 100) / 100);
 
 /** Minutes within which a share p of the tickets were ready, read off the histogram to the bucket's upper end. */
-export function histogramPercentile(buckets: { bucket: number; tickets: number }[], p: number): number | null {
+function histogramPercentile(buckets: { bucket: number; tickets: number }[], p: number): number | null {
   const total = buckets.reduce((n, b) => n + b.tickets, 0);
   if (total === 0) return null;
   const sorted = [...buckets].sort((a, b) => a.bucket - b.bucket);
@@ -328,7 +328,7 @@ const NM_PER_HUNDREDTH_MM = 10_000;
  * One table of a report as CSV, with the screen's column labels as its header row. Money is written in the
  * currency's major unit and readings in the rink's unit, so a spreadsheet shows what the screen shows.
  */
-export function tableCsv(report: ReportName, table: string, answer: { tables: Record<string, Record<string, unknown>[]> }, rink: { currency: string; unitPreference: 'in' | 'mm' }): string {
+function tableCsv(report: ReportName, table: string, answer: { tables: Record<string, Record<string, unknown>[]> }, rink: { currency: string; unitPreference: 'in' | 'mm' }): string {
   const columns = reportColumns(report, table);
   const rows = answer.tables[table];
   if (!columns || !rows) throw AppError.notFound('No such table in this report');
