@@ -77,7 +77,13 @@ export function createAuth(env: Env, db: Database, mailer: Mailer, logger: Logge
         await directory.linkCustomersByVerifiedEmail(person.id);
       },
     },
-    session: { expiresIn: 30 * 24 * 3600, updateAge: 24 * 3600 },
+    session: {
+      expiresIn: 30 * 24 * 3600,
+      updateAge: 24 * 3600,
+      // Every request needs the session; a signed copy in a cookie spares the database that read for a while
+      // (env.ts, SESSION_CACHE_SECONDS, with its cost). Staff access to a rink is still read on every request.
+      cookieCache: { enabled: env.SESSION_CACHE_SECONDS > 0, maxAge: env.SESSION_CACHE_SECONDS },
+    },
     rateLimit: {
       enabled: true,
       storage: 'database',

@@ -47,6 +47,12 @@ export const envSchema = z.object({
   /** Requests per minute per client address on the auth endpoints and on the rest of the API. */
   AUTH_RATE_LIMIT_MAX: z.coerce.number().int().min(1).default(30),
   API_RATE_LIMIT_MAX: z.coerce.number().int().min(1).default(600),
+  /**
+   * How long a browser's session is taken from its signed cache cookie before it is read from the database again
+   * (0: on every request). A session ended elsewhere (sign-out on another device, a password reset) still works
+   * on a device holding a fresh copy for up to this long.
+   */
+  SESSION_CACHE_SECONDS: z.coerce.number().int().min(0).max(300).default(60),
   /** Number of reverse proxies in front of the API whose X-Forwarded-For may be trusted. */
   TRUST_PROXY_HOPS: z.coerce.number().int().min(0).default(0),
 });

@@ -11,6 +11,8 @@ import {
   creditEntry,
   creditLot,
   customer,
+  customerSearch,
+  customerSearchRows,
   levelReading,
   levelingAdjustment,
   member,
@@ -34,7 +36,7 @@ import {
 // run time. Everything follows from the seed, the namespace and `now`: the same inputs give the same rows.
 
 /** Raised whenever the generator changes, so a data set seeded by an older one is not reused. */
-export const BENCH_SEED_VERSION = 1;
+export const BENCH_SEED_VERSION = 2;
 
 export interface BenchSize {
   rinks: number;
@@ -147,7 +149,7 @@ function planOf(table: MySqlTable): TablePlan {
 }
 
 /** Tables in foreign-key order: a flush writes parents before the children buffered with them. */
-const ORDER: MySqlTable[] = [rink, user, account, member, serviceItem, station, wheel, wheelEvent, levelingAdjustment, customer, ticket, ticketPair, sharpening, levelReading, product, productPrice, payment, creditAccount, creditLot, creditEntry];
+const ORDER: MySqlTable[] = [rink, user, account, member, serviceItem, station, wheel, wheelEvent, levelingAdjustment, customer, customerSearch, ticket, ticketPair, sharpening, levelReading, product, productPrice, payment, creditAccount, creditLot, creditEntry];
 const PLANS = new Map(ORDER.map((t) => [t, planOf(t)]));
 
 /** Buffers rows per table and writes them as multi-row INSERTs, parents first. */
@@ -360,7 +362,7 @@ async function seedRink(w: BatchWriter, shared: Shared, plan: RinkPlan): Promise
     const first = faker.person.firstName();
     const last = faker.person.lastName();
     const withEmail = rand() < 0.65;
-    w.add(customer, {
+    const row = {
       id: idOf(customer, k),
       tenantId,
       name: `${first} ${last}`,
@@ -370,7 +372,9 @@ async function seedRink(w: BatchWriter, shared: Shared, plan: RinkPlan): Promise
       userId: null,
       paymentCustomerId: null,
       createdAt: new Date(start.getTime() - rand.int(0, 400) * DAY),
-    });
+    };
+    w.add(customer, row);
+    for (const term of customerSearchRows(row)) w.add(customerSearch, term);
     if (w.full) await w.flush();
   }
   const customerId = () => idOf(customer, rand.int(0, customerCount - 1));

@@ -1,4 +1,4 @@
-import { and, asc, eq, isNull } from 'drizzle-orm';
+import { and, asc, eq, isNull, sql } from 'drizzle-orm';
 import { currentDb } from './client';
 import { isDuplicateKey } from './client';
 import { customer, invitation, jobRun, member, rink, rinkBilling, user } from './schema/index';
@@ -9,26 +9,33 @@ import { customer, invitation, jobRun, member, rink, rinkBilling, user } from '.
 
 /**
  * The rink of a slug with its standing with the platform (its plan's state and grace, and whether the platform
- * suspended it), in one read: every rink request needs both.
+ * suspended it) and, given a user, that user's membership there, in one read: every rink request needs all three.
  */
-export async function findRinkBySlug(slug: string) {
+export async function findRinkBySlug(slug: string, userId?: string) {
   const rows = await currentDb()
-    .select({ rink, planState: rinkBilling.planState, graceUntil: rinkBilling.planGraceUntil, suspendedAt: rinkBilling.suspendedAt, suspendedReason: rinkBilling.suspendedReason })
+    .select({
+      rink,
+      planState: rinkBilling.planState,
+      graceUntil: rinkBilling.planGraceUntil,
+      suspendedAt: rinkBilling.suspendedAt,
+      suspendedReason: rinkBilling.suspendedReason,
+      memberId: member.id,
+      memberRole: member.role,
+    })
     .from(rink)
     .leftJoin(rinkBilling, eq(rinkBilling.tenantId, rink.id))
+    // A join that matches nothing without a user keeps this one statement for the public page and the staff.
+    .leftJoin(member, and(eq(member.organizationId, rink.id), userId ? eq(member.userId, userId) : sql`false`))
     .where(eq(rink.slug, slug))
     .limit(1);
   const row = rows[0];
-  return row && { ...row.rink, standing: { planState: row.planState, graceUntil: row.graceUntil, suspendedAt: row.suspendedAt, suspendedReason: row.suspendedReason } };
-}
-
-export async function findMembership(userId: string, rinkId: string) {
-  const rows = await currentDb()
-    .select({ id: member.id, role: member.role })
-    .from(member)
-    .where(and(eq(member.userId, userId), eq(member.organizationId, rinkId)))
-    .limit(1);
-  return rows[0];
+  return (
+    row && {
+      ...row.rink,
+      standing: { planState: row.planState, graceUntil: row.graceUntil, suspendedAt: row.suspendedAt, suspendedReason: row.suspendedReason },
+      membership: row.memberId && row.memberRole ? { id: row.memberId, role: row.memberRole } : null,
+    }
+  );
 }
 
 export async function listMembershipsOfUser(userId: string) {

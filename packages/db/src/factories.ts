@@ -4,6 +4,8 @@ import { hashPassword } from 'better-auth/crypto';
 import { memberCode } from '@rinkwright/core';
 import type { Executor } from './client';
 import {
+  customerSearch,
+  customerSearchRows,
   account,
   customer,
   invitation,
@@ -138,6 +140,7 @@ export async function createCustomer(
     createdAt: new Date(),
   };
   await db.insert(customer).values(row);
+  await db.insert(customerSearch).values(customerSearchRows(row));
   return row;
 }
 

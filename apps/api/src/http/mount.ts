@@ -1,4 +1,4 @@
-import type { Express, Request } from 'express';
+import type { Express, Request, Response } from 'express';
 import { graceLapsed } from '@rinkwright/core';
 import type { z } from 'zod';
 import type { Auth } from '../auth';
@@ -7,6 +7,7 @@ import { findCaller, requireCaller, resolveRink } from '../middleware/context';
 import { AppError, fieldsOf } from './errors';
 import { idempotencyKeyOf, once, requestHash, type StoredAnswer } from '../middleware/idempotency';
 import type { RinkContext, Route } from './route';
+import { scoped, type Scope } from '@rinkwright/db';
 
 function parsePart(schema: z.ZodType | undefined, value: unknown, part: 'params' | 'query' | 'body'): unknown {
   if (!schema) return undefined;
@@ -17,19 +18,19 @@ function parsePart(schema: z.ZodType | undefined, value: unknown, part: 'params'
   return parsed.data;
 }
 
-async function contextFor(route: Route, auth: Auth, req: Request): Promise<unknown> {
+async function contextFor(route: Route, auth: Auth, req: Request, res: Response): Promise<unknown> {
   switch (route.access) {
     case 'public':
-      return { user: await findCaller(auth, req) };
+      return { user: await findCaller(auth, req, res) };
     case 'user':
-      return requireCaller(auth, req);
+      return requireCaller(auth, req, res);
     case 'platform': {
-      const caller = await requireCaller(auth, req);
+      const caller = await requireCaller(auth, req, res);
       if (!caller.platformAdmin) throw AppError.notFound('No such page');
       return caller;
     }
     case 'rink': {
-      const caller = await requireCaller(auth, req);
+      const caller = await requireCaller(auth, req, res);
       const { ctx, standing } = await resolveRink(caller, String(req.params.rinkSlug));
       if (route.permission && !roleAllows(ctx.role, route.permission)) {
         throw new AppError('forbidden', 'Your role at this rink does not allow this');
@@ -52,26 +53,27 @@ async function contextFor(route: Route, auth: Auth, req: Request): Promise<unkno
 export function mountRoutes(app: Express, routes: Route[], auth: Auth): void {
   for (const route of routes) {
     app[route.method](route.path, async (req, res) => {
-      const ctx = await contextFor(route, auth, req);
+      const ctx = await contextFor(route, auth, req, res);
       const keyed = route.idempotent === true || (route.idempotent === 'optional' && req.get('idempotency-key') !== undefined);
       if (keyed) idempotencyKeyOf(req);
       const params = parsePart(route.params, req.params, 'params');
       const query = parsePart(route.query, req.query, 'query');
       const body = parsePart(route.body, req.body, 'body');
+      const rinkCtx = route.access === 'rink' ? (ctx as RinkContext) : undefined;
       // The response schema is the contract: it also strips anything a handler should not have returned.
-      const run = async (): Promise<StoredAnswer> => {
-        const result = await route.handle({ ctx, params, query, body, req, res });
+      const run = async (scope: Scope | undefined): Promise<StoredAnswer> => {
+        const result = await route.handle({ ctx, scope, params, query, body, req, res });
         // A handler may answer with a status of its own (health answers 503); otherwise the route's status.
         return { status: res.statusCode === 200 ? route.status : res.statusCode, body: route.response.parse(result) };
       };
       let answer: StoredAnswer;
-      if (keyed) {
+      if (keyed && rinkCtx) {
         const key = idempotencyKeyOf(req);
-        const { tenantId } = ctx as RinkContext;
-        answer = await once(tenantId, key, `${route.method} ${route.path}`, requestHash(route.path, params, body), run);
+        const claim = { key, route: `${route.method} ${route.path}`, hash: requestHash(route.path, params, body), atomic: route.atomic === true };
+        answer = await once(rinkCtx.tenantId, claim, run);
         res.setHeader('Idempotency-Key', key);
       } else {
-        answer = await run();
+        answer = await run(rinkCtx && scoped(rinkCtx.tenantId));
       }
       if (route.produces === 'csv') res.status(answer.status).type('text/csv; charset=utf-8').send(answer.body);
       else res.status(answer.status).json(answer.body);

@@ -1,6 +1,7 @@
 import type { Request, Response } from 'express';
 import type { StaffRole } from '@rinkwright/core';
 import type { z } from 'zod';
+import type { Scope } from '@rinkwright/db';
 import type { Permission } from '../access';
 
 export type Method = 'get' | 'post' | 'patch' | 'put' | 'delete';
@@ -50,8 +51,15 @@ export interface RouteSpec<K extends AccessKind, P, Q, B, R extends Schema> {
    * 'optional' honours a key when the client sends one (the web app always does) and works without one.
    */
   idempotent?: K extends 'rink' ? boolean | 'optional' : never;
+  /**
+   * With `idempotent: true`: the handler's writes and the key's stored answer commit as one transaction, and `scope`
+   * is that transaction (middleware/idempotency.ts). Only for handlers that call nothing outside the database.
+   */
+  atomic?: K extends 'rink' ? true : never;
   handle(input: {
     ctx: Contexts[K];
+    /** The rink's scope (the request's transaction when the route is atomic); undefined outside rink routes. */
+    scope: K extends 'rink' ? Scope : undefined;
     params: Infer<P>;
     query: Infer<Q>;
     body: Infer<B>;
@@ -73,7 +81,8 @@ export interface Route {
   status: number;
   produces?: 'json' | 'csv';
   idempotent?: boolean | 'optional';
-  handle(input: { ctx: unknown; params: unknown; query: unknown; body: unknown; req: Request; res: Response }): Promise<unknown>;
+  atomic?: true;
+  handle(input: { ctx: unknown; scope: Scope | undefined; params: unknown; query: unknown; body: unknown; req: Request; res: Response }): Promise<unknown>;
 }
 
 /** Declares one route: its shape is the single source for validation, the OpenAPI document and the tenancy sweep. */
@@ -81,6 +90,7 @@ export function defineRoute<K extends AccessKind, P extends Schema | undefined, 
   spec: RouteSpec<K, P, Q, B, R>,
 ): Route {
   if (spec.access === 'rink' && !spec.permission) throw new Error(`${spec.path}: rink routes need a permission`);
+  if (spec.atomic && spec.idempotent !== true) throw new Error(`${spec.path}: an atomic route is an idempotent one`);
   if (spec.access === 'rink' && !spec.path.startsWith('/api/rinks/:rinkSlug')) {
     throw new Error(`${spec.path}: rink routes live under /api/rinks/:rinkSlug`);
   }

@@ -1,4 +1,4 @@
-import type { Request } from 'express';
+import type { Request, Response } from 'express';
 import { fromNodeHeaders } from 'better-auth/node';
 import { directory } from '@rinkwright/db';
 import { STAFF_ROLES, type StaffRole } from '@rinkwright/core';
@@ -6,15 +6,20 @@ import type { Auth } from '../auth';
 import { AppError } from '../http/errors';
 import type { RinkContext, UserContext } from '../http/route';
 
-export async function findCaller(auth: Auth, req: Request): Promise<UserContext | null> {
-  const found = await auth.api.getSession({ headers: fromNodeHeaders(req.headers) });
+/**
+ * The signed-in user. The session is read from its signed cache cookie while that is fresh (auth.ts), else from
+ * the database; whatever cookies better-auth renews on the way are passed on to the browser.
+ */
+export async function findCaller(auth: Auth, req: Request, res: Response): Promise<UserContext | null> {
+  const { headers, response: found } = await auth.api.getSession({ headers: fromNodeHeaders(req.headers), returnHeaders: true });
+  for (const cookie of headers.getSetCookie()) res.append('Set-Cookie', cookie);
   if (!found) return null;
   const { user } = found;
   return { userId: user.id, email: user.email, name: user.name, platformAdmin: user.role === 'admin' };
 }
 
-export async function requireCaller(auth: Auth, req: Request): Promise<UserContext> {
-  const caller = await findCaller(auth, req);
+export async function requireCaller(auth: Auth, req: Request, res: Response): Promise<UserContext> {
+  const caller = await findCaller(auth, req, res);
   if (!caller) throw new AppError('unauthenticated', 'Sign in to continue');
   return caller;
 }
@@ -29,10 +34,9 @@ export type RinkStanding = NonNullable<Awaited<ReturnType<typeof directory.findR
 
 /** The caller's context at the rink of the slug, and the rink's standing with the platform. */
 export async function resolveRink(caller: UserContext, slug: string): Promise<{ ctx: RinkContext; standing: RinkStanding }> {
-  const found = await directory.findRinkBySlug(slug);
-  if (!found) throw AppError.notFound(NOT_FOUND);
-  const membership = await directory.findMembership(caller.userId, found.id);
-  if (!membership || !isStaffRole(membership.role)) throw AppError.notFound(NOT_FOUND);
+  const found = await directory.findRinkBySlug(slug, caller.userId);
+  const membership = found?.membership;
+  if (!found || !membership || !isStaffRole(membership.role)) throw AppError.notFound(NOT_FOUND);
   return { ctx: { ...caller, tenantId: found.id, rinkSlug: found.slug, rinkName: found.name, role: membership.role, memberId: membership.id }, standing: found.standing };
 }
 

@@ -1,4 +1,4 @@
-import { datetime, foreignKey, index, int, mysqlTable, unique, varchar } from 'drizzle-orm/mysql-core';
+import { datetime, foreignKey, index, int, mysqlTable, primaryKey, smallint, unique, varchar } from 'drizzle-orm/mysql-core';
 import { user } from './auth';
 import { rink } from './rinks';
 
@@ -33,3 +33,41 @@ export const customer = mysqlTable(
     foreignKey({ name: 'customer_user_fk', columns: [t.userId], foreignColumns: [user.id] }).onDelete('set null'),
   ],
 );
+
+/** How much of each suffix the search index keeps; a longer query is matched on this much, then checked whole. */
+export const SEARCH_TERM_LENGTH = 48;
+
+/**
+ * The counter's customer search index: every suffix of a customer's name and e-mail, of the phone's digits (from
+ * three digits on), and the member code, so "a part of the name" is a prefix of one of them and an index range
+ * instead of a scan of the rink's customers. Written with the customer (these are set once, at creation).
+ */
+export const customerSearch = mysqlTable(
+  'customer_search',
+  {
+    tenantId: varchar('tenant_id', { length: 36 }).notNull(),
+    customerId: varchar('customer_id', { length: 36 }).notNull(),
+    /** Which term: the name's suffixes from 0, the e-mail's from 1000, the phone digits' from 2000, the code at 3000. */
+    position: smallint('position').notNull(),
+    term: varchar('term', { length: SEARCH_TERM_LENGTH }).notNull(),
+  },
+  (t) => [
+    primaryKey({ name: 'customer_search_pk', columns: [t.tenantId, t.customerId, t.position] }),
+    index('customer_search_tenant_term_idx').on(t.tenantId, t.term),
+    foreignKey({ name: 'customer_search_customer_fk', columns: [t.tenantId, t.customerId], foreignColumns: [customer.tenantId, customer.id] }).onDelete('cascade'),
+  ],
+);
+
+/** The rows of customerSearch for one customer (the migration that made the table writes the same ones in SQL). */
+export function customerSearchRows(c: { id: string; tenantId: string; name: string; email: string | null; phone: string | null; memberCode: string }) {
+  const rows: (typeof customerSearch.$inferInsert)[] = [];
+  const add = (text: string, base: number, shortest: number) => {
+    const lower = text.toLowerCase();
+    for (let i = 0; i + shortest <= lower.length; i++) rows.push({ tenantId: c.tenantId, customerId: c.id, position: base + i, term: lower.slice(i, i + SEARCH_TERM_LENGTH) });
+  };
+  add(c.name, 0, 1);
+  if (c.email) add(c.email, 1000, 1);
+  if (c.phone) add(c.phone.replace(/\D/g, ''), 2000, 3);
+  rows.push({ tenantId: c.tenantId, customerId: c.id, position: 3000, term: c.memberCode.toLowerCase() });
+  return rows;
+}

@@ -1,6 +1,6 @@
 import type { BalanceResponse, CreditSummary, EntryResponse, LedgerResponse } from '@rinkwright/core';
 import { deferredRevenueMinor } from '@rinkwright/core';
-import { scoped } from '@rinkwright/db';
+import { scoped, type Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
 import * as ledger from '../../lib/ledger/ledger';
@@ -42,21 +42,29 @@ const entryOut = (op: ledger.Operation): EntryResponse => {
   };
 };
 
-export async function redeemCredit(ctx: RinkContext, customerId: string, key: string, input: { ticketPairId: string | null; note: string | null }): Promise<EntryResponse> {
-  await requireCustomer(ctx, customerId);
-  const s = scoped(ctx.tenantId);
-  const account = await ledger.skaterAccount(s, customerId);
+/**
+ * One credit off the customer's account, in the route's transaction (it is atomic, so the route has replayed any
+ * earlier use of the key): the account's lock is the first read, so the lots read after it are the ones every other
+ * redemption left.
+ */
+export async function redeemCredit(s: Scope, ctx: RinkContext, customerId: string, key: string, input: { ticketPairId: string | null; note: string | null }): Promise<EntryResponse> {
+  const account = await ledger.lockSkaterAccount(s, customerId);
+  if (!account) {
+    await requireCustomer(ctx, customerId);
+    throw new AppError('insufficient_credits', 'No credits left on this account');
+  }
   const op = await ledger.redeem(s, {
     accountId: account.id,
     key: `redeem:${key}`,
     actor: { userId: ctx.userId, source: input.ticketPairId ? 'ticket' : 'staff', sourceId: input.ticketPairId, reason: input.note },
+    locked: true,
+    replayChecked: true,
   });
   return entryOut(op);
 }
 
-export async function adjustCredits(ctx: RinkContext, customerId: string, key: string, input: { credits: number; reason: string }): Promise<EntryResponse> {
+export async function adjustCredits(s: Scope, ctx: RinkContext, customerId: string, key: string, input: { credits: number; reason: string }): Promise<EntryResponse> {
   await requireCustomer(ctx, customerId);
-  const s = scoped(ctx.tenantId);
   const account = await ledger.skaterAccount(s, customerId);
   const op = await ledger.adjust(s, { accountId: account.id, key: `adjust:${key}`, actor: { userId: ctx.userId, source: 'staff', sourceId: null, reason: input.reason }, credits: input.credits });
   return entryOut(op);

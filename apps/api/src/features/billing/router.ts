@@ -140,7 +140,8 @@ export function billingRoutes(deps: SalesDeps) {
       response: entryResponse,
       status: 201,
       idempotent: true,
-      handle: ({ ctx, params, body, req }) => credits.redeemCredit(ctx, params.customerId, idempotencyKeyOf(req), body),
+      atomic: true,
+      handle: ({ ctx, scope, params, body, req }) => credits.redeemCredit(scope, ctx, params.customerId, idempotencyKeyOf(req), body),
     }),
     defineRoute({
       method: 'post',
@@ -153,7 +154,8 @@ export function billingRoutes(deps: SalesDeps) {
       response: entryResponse,
       status: 201,
       idempotent: true,
-      handle: ({ ctx, params, body, req }) => credits.adjustCredits(ctx, params.customerId, idempotencyKeyOf(req), body),
+      atomic: true,
+      handle: ({ ctx, scope, params, body, req }) => credits.adjustCredits(scope, ctx, params.customerId, idempotencyKeyOf(req), body),
     }),
     defineRoute({
       method: 'get',

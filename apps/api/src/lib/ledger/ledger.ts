@@ -57,6 +57,8 @@ export const teamAccount = (s: Scope, leagueId: string, teamId: string) =>
 export const poolAccount = (s: Scope, leagueId: string) =>
   repo.ensureAccount(s, { id: randomUUID(), kind: 'league_pool', leagueId }, () => repo.findPoolOfLeague(s, leagueId));
 export const findSkaterAccount = (s: Scope, customerId: string) => repo.findAccountOfCustomer(s, customerId);
+/** Inside a transaction: the customer's account, locked as an operation locks it; undefined when there is none yet. */
+export const lockSkaterAccount = (s: Scope, customerId: string) => repo.lockAccountOfCustomer(s, customerId);
 export const findTeamAccount = (s: Scope, teamId: string) => repo.findAccountOfTeam(s, teamId);
 export const findPoolAccount = (s: Scope, leagueId: string) => repo.findPoolOfLeague(s, leagueId);
 
@@ -111,10 +113,32 @@ interface Step {
   reversesId?: string;
 }
 
+/** The usable balance after an operation: the lots read under the lock, moved by its steps, and any lot it opened. */
+function balanceAfter(lots: repo.LotWithContext[], remainingBefore: Map<string, number>, steps: Step[], accountId: string, now: Date): number {
+  const moved = new Map<string, number>();
+  for (const step of steps) if (step.lot.accountId === accountId) moved.set(step.lot.id, (moved.get(step.lot.id) ?? 0) + step.credits);
+  const opened = steps.filter((step) => step.lot.accountId === accountId && !remainingBefore.has(step.lot.id)).map((step) => step.lot);
+  const after = [
+    ...lots.map((l) => ({ ...l, remaining: (remainingBefore.get(l.id) ?? 0) + (moved.get(l.id) ?? 0) })),
+    ...[...new Map(opened.map((l) => [l.id, l])).values()].map((l) => ({ ...l, remaining: moved.get(l.id) ?? 0, productName: null, membershipState: null, membershipGraceUntil: null })),
+  ];
+  return after.filter((l) => redeemable(l, now)).reduce((n, l) => n + l.remaining, 0);
+}
+
+interface OperateOptions {
+  /** The caller's transaction holds the account's lock already. */
+  locked?: boolean;
+  /**
+   * The caller looked for an earlier use of the key itself (an atomic route's replay), so the operation does not:
+   * a concurrent first use still fails on the entries' unique key, and the caller replays that one's answer.
+   */
+  replayChecked?: boolean;
+}
+
 /**
- * Locks the account, replays the key if it was used, otherwise lets `plan` decide the steps (it sees the lots
- * under the lock) and writes them: one entry per step and the lot's new running total. Runs in `s`'s transaction
- * or in a new one.
+ * Locks the account (unless the caller holds its lock already), replays the key if it was used, otherwise lets
+ * `plan` decide the steps (it sees the lots under the lock) and writes them: one entry per step and the lot's new
+ * running total. Runs in `s`'s transaction or in a new one.
  */
 async function operate(
   s: Scope,
@@ -122,16 +146,20 @@ async function operate(
   key: string,
   actor: Actor,
   plan: (ctx: { lots: repo.LotWithContext[]; now: Date; tx: Scope }) => Promise<Step[]> | Step[],
+  options: OperateOptions = {},
 ): Promise<Operation> {
   return s.transaction(async (tx) => {
-    const account = await repo.lockAccount(tx, accountId);
-    if (!account) throw AppError.notFound('No such credit account');
+    if (!options.locked) {
+      const account = await repo.lockAccount(tx, accountId);
+      if (!account) throw AppError.notFound('No such credit account');
+    }
     const now = new Date();
-    const earlier = await repo.findEntryByKey(tx, key);
+    const earlier = options.replayChecked ? undefined : await repo.findEntryByKey(tx, key);
     if (earlier) {
       return { entries: await repo.entriesOfOperation(tx, earlier.operationId), balance: await usableBalance(tx, accountId, now), replayed: true };
     }
     const lots = await repo.lotsOf(tx, [accountId]);
+    const remainingBefore = new Map(lots.map((l) => [l.id, l.remaining]));
     const steps = await plan({ lots, now, tx });
     const operationId = randomUUID();
     const entries: repo.EntryRecord[] = [];
@@ -164,7 +192,7 @@ async function operate(
       });
     }
     await repo.insertEntries(tx, entries);
-    return { entries, balance: await usableBalance(tx, accountId, now), replayed: false };
+    return { entries, balance: balanceAfter(lots, remainingBefore, steps, accountId, now), replayed: false };
   });
 }
 
@@ -194,8 +222,10 @@ export async function addLot(
   });
 }
 
-/** Takes one credit from the redeemable lot that expires first. 409 insufficient_credits when there is none. */
-export function redeem(s: Scope, input: { accountId: string; key: string; actor: Actor }): Promise<Operation> {
+/**
+ * Takes one credit from the redeemable lot that expires first. 409 insufficient_credits when there is none.
+ */
+export function redeem(s: Scope, input: { accountId: string; key: string; actor: Actor } & OperateOptions): Promise<Operation> {
   return operate(s, input.accountId, input.key, input.actor, ({ lots, now }) => {
     const usable = lots.filter((l) => redeemable(l, now));
     const chosen = lotToRedeem(usable.map((l) => asUsableLot(l, now)), now);
@@ -205,7 +235,7 @@ export function redeem(s: Scope, input: { accountId: string; key: string; actor:
       throw new AppError('insufficient_credits', held ? 'The membership’s payment failed and its grace has run out: its credits are kept, and usable again once it is paid' : 'No credits left on this account');
     }
     return [{ lot, kind: 'redeem', credits: -1 }];
-  });
+  }, { locked: input.locked, replayChecked: input.replayChecked });
 }
 
 /** Takes `credits` from the usable lots, first to expire first (a negative adjustment, or a transfer out). */

@@ -35,6 +35,11 @@ export async function lockAccount(s: Scope, accountId: string): Promise<AccountR
   return row;
 }
 
+export async function lockAccountOfCustomer(s: Scope, customerId: string): Promise<AccountRow | undefined> {
+  const [row] = await s.lock(creditAccount, eq(creditAccount.customerId, customerId));
+  return row;
+}
+
 export interface LotWithContext extends LotRecord {
   productName: string | null;
   membershipState: (typeof membership.$inferSelect)['state'] | null;
