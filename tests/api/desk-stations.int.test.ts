@@ -1,3 +1,4 @@
+import { passesOnWheelBefore } from '../../apps/api/src/features/stations/repository';
 import { createCustomer, createStation, uniqueSuffix } from '@rinkwright/db/testing';
 import { levelReading, levelingAdjustment, station as stationTable, wheel, wheelEvent } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
@@ -220,7 +221,21 @@ describe('wheels and upkeep', () => {
     expect(corrected.status).toBe(201);
     expect((corrected.body as TicketBody).pairs[0]?.sharpenings.map((s) => s.passes)).toEqual([4, 6]);
     // The wheel wore by the passes actually ground: 6 (as corrected) + 5.
-    expect((await stationRow(technician, desk)).wheel?.passesSinceMount).toBe(11);
+    const row = await stationRow(technician, desk);
+    expect(row.wheel?.passesSinceMount).toBe(11);
+
+    // A second correction of the same record replaces the first one's count, it does not add to it: 7 + 5.
+    const again = await write(technician, `/api/rinks/${desk.world.slug}/sharpenings/${originalId}/corrections`, {
+      reason: 'Recounted: 7 passes',
+      hollowNm: HALF_INCH_NM,
+      passes: 7,
+      bladeWidthNm: HOCKEY_WIDTH_NM,
+    });
+    expect(again.status).toBe(201);
+    expect((await stationRow(technician, desk)).wheel?.passesSinceMount).toBe(12);
+    // What the wheel had done at a time: nothing before the pairs were logged, all 12 after them.
+    const wheelId = row.wheel?.id ?? '';
+    expect(await passesOnWheelBefore(desk.world.id, wheelId, [new Date(0), new Date(Date.now() + 60_000)])).toEqual([0, 12]);
   });
 
   it('lets a technician log upkeep but not add or change stations (403)', async () => {

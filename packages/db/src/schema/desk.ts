@@ -155,6 +155,9 @@ export const sharpening = mysqlTable(
     index('sharpening_tenant_done_idx').on(t.tenantId, t.doneAt),
     index('sharpening_tenant_ticket_idx').on(t.tenantId, t.ticketId),
     index('sharpening_tenant_pair_idx').on(t.tenantId, t.ticketPairId),
+    // A wheel's passes, summed from the index alone; and the corrections of a record.
+    index('sharpening_tenant_wheel_idx').on(t.tenantId, t.wheelId, t.correctsId, t.doneAt, t.passes),
+    index('sharpening_tenant_corrects_idx').on(t.tenantId, t.correctsId),
     rinkFk('sharpening_rink_fk', t.tenantId),
     sameRinkFk('sharpening_ticket_fk', t.tenantId, t.ticketId, ticket.tenantId, ticket.id),
     sameRinkFk('sharpening_pair_fk', t.tenantId, t.ticketPairId, ticketPair.tenantId, ticketPair.id),

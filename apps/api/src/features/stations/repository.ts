@@ -1,7 +1,11 @@
 import { randomUUID } from 'node:crypto';
-import { and, asc, count, desc, eq, gte, inArray, isNull, or } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gte, inArray, isNull, or, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/mysql-core';
 import { levelReading, levelingAdjustment, scoped, sharpening, station, ticket, user, wheel, wheelEvent } from '@rinkwright/db';
 import type { StationInput } from '@rinkwright/core';
+
+/** An original sharpening, joined to the corrections that point at it. */
+const corrected = alias(sharpening, 'corrected');
 
 export const listStations = (tenantId: string) => scoped(tenantId).find(station, { orderBy: asc(station.name) });
 
@@ -29,18 +33,50 @@ export const wheelEvents = (tenantId: string, wheelIds: string[]) =>
  * when it was corrected (a correction replaces the record's numbers, it is not another pair).
  */
 export async function passesByWheel(tenantId: string, wheelIds: string[]): Promise<Map<string, number>> {
-  if (wheelIds.length === 0) return new Map();
-  const rows = await scoped(tenantId).find(sharpening, { where: inArray(sharpening.wheelId, wheelIds), orderBy: [asc(sharpening.createdAt), asc(sharpening.id)] });
-  const totals = new Map<string, number>();
-  for (const [wheelId, passes] of effectivePasses(rows)) totals.set(wheelId, (totals.get(wheelId) ?? 0) + passes);
-  return totals;
+  const [totals] = await passesOnWheels(tenantId, wheelIds, [null]);
+  return totals ?? new Map();
 }
 
-/** Per original sharpening, its wheel and its passes as last corrected, with the time the pair was done. */
-function effectivePasses(rows: (typeof sharpening.$inferSelect)[]): [string, number, Date][] {
-  const latest = new Map<string, number>();
-  for (const r of rows) if (r.correctsId) latest.set(r.correctsId, r.passes);
-  return rows.filter((r) => !r.correctsId && r.wheelId).map((r) => [r.wheelId as string, latest.get(r.id) ?? r.passes, r.doneAt]);
+/** Passes ground on a wheel before each time: what the wheel had done when a dressing measured it. */
+export async function passesOnWheelBefore(tenantId: string, wheelId: string, times: Date[]): Promise<number[]> {
+  return (await passesOnWheels(tenantId, [wheelId], times)).map((byWheel) => byWheel.get(wheelId) ?? 0);
+}
+
+/**
+ * Per time (null: now), the passes on each wheel by the pairs done before it. The originals are summed in the
+ * database over the wheel index; the few corrections are then applied as the difference their latest one makes.
+ */
+async function passesOnWheels(tenantId: string, wheelIds: string[], times: (Date | null)[]): Promise<Map<string, number>[]> {
+  const result = times.map(() => new Map<string, number>());
+  if (wheelIds.length === 0 || times.length === 0) return result;
+  const s = scoped(tenantId);
+  const before = (t: Date | null) => (t ? sql`${sharpening.doneAt} < ${t}` : sql`true`);
+  const sums = Object.fromEntries(times.map((t, i) => [`t${i}`, sql<number>`coalesce(sum(case when ${before(t)} then ${sharpening.passes} else 0 end), 0)`.mapWith(Number)]));
+  const [originals, corrections] = await Promise.all([
+    s.findJoined(sharpening, { fields: { wheelId: sharpening.wheelId, ...sums }, joins: [], where: and(inArray(sharpening.wheelId, wheelIds), isNull(sharpening.correctsId)), groupBy: [sharpening.wheelId] }),
+    s.findJoined(corrected, {
+      fields: { originalId: corrected.id, wheelId: corrected.wheelId, doneAt: corrected.doneAt, was: corrected.passes, passes: sharpening.passes, createdAt: sharpening.createdAt, id: sharpening.id },
+      joins: [{ table: sharpening, on: and(eq(sharpening.tenantId, corrected.tenantId), eq(sharpening.correctsId, corrected.id))! }],
+      where: and(inArray(corrected.wheelId, wheelIds), isNull(corrected.correctsId)),
+    }),
+  ]);
+  for (const row of originals) {
+    const values = row as unknown as Record<string, number>;
+    times.forEach((_, i) => result[i]!.set(row.wheelId as string, values[`t${i}`] ?? 0));
+  }
+  const latest = new Map<string, (typeof corrections)[number]>();
+  for (const c of corrections) {
+    const seen = latest.get(c.originalId);
+    if (!seen || c.createdAt > seen.createdAt || (c.createdAt.getTime() === seen.createdAt.getTime() && c.id > seen.id)) latest.set(c.originalId, c);
+  }
+  for (const c of latest.values()) {
+    times.forEach((t, i) => {
+      if (t && !(c.doneAt < t)) return;
+      const byWheel = result[i]!;
+      byWheel.set(c.wheelId as string, (byWheel.get(c.wheelId as string) ?? 0) + c.passes - c.was);
+    });
+  }
+  return result;
 }
 
 export async function queueCounts(tenantId: string) {
@@ -110,12 +146,6 @@ export function adjustmentsOf(tenantId: string, stationId: string) {
     where: eq(levelingAdjustment.stationId, stationId),
     orderBy: [desc(levelingAdjustment.at)],
   });
-}
-
-/** Passes ground on a wheel before a time: what the wheel had done when a dressing measured it. */
-export async function passesOnWheelBefore(tenantId: string, wheelId: string, times: Date[]): Promise<number[]> {
-  const rows = effectivePasses(await scoped(tenantId).find(sharpening, { where: eq(sharpening.wheelId, wheelId), orderBy: asc(sharpening.createdAt) }));
-  return times.map((t) => rows.filter(([, , doneAt]) => doneAt < t).reduce((sum, [, passes]) => sum + passes, 0));
 }
 
 /** The latest readings the drift watch charts (first readings and check readings), oldest first. */

@@ -1,0 +1,2 @@
+CREATE INDEX `sharpening_tenant_wheel_idx` ON `sharpening` (`tenant_id`,`wheel_id`,`corrects_id`,`done_at`,`passes`);--> statement-breakpoint
+CREATE INDEX `sharpening_tenant_corrects_idx` ON `sharpening` (`tenant_id`,`corrects_id`);
