@@ -211,12 +211,9 @@ describe('wheels and upkeep', () => {
     await logPair(technician, desk, made.id, second?.id ?? '', { passes: 5 });
     const originalId = logged.pairs[0]?.sharpenings[0]?.id ?? '';
 
-    const corrected = await write(technician, `/api/rinks/${desk.world.slug}/sharpenings/${originalId}/corrections`, {
-      reason: 'Logged 4 passes, ground 6',
-      hollowNm: HALF_INCH_NM,
-      passes: 6,
-      bladeWidthNm: HOCKEY_WIDTH_NM,
-    });
+    const correct = (passes: number, reason: string) =>
+      write(technician, `/api/rinks/${desk.world.slug}/sharpenings/${originalId}/corrections`, { reason, hollowNm: HALF_INCH_NM, passes, bladeWidthNm: HOCKEY_WIDTH_NM });
+    const corrected = await correct(6, 'Logged 4 passes, ground 6');
 
     expect(corrected.status).toBe(201);
     expect((corrected.body as TicketBody).pairs[0]?.sharpenings.map((s) => s.passes)).toEqual([4, 6]);
@@ -225,12 +222,7 @@ describe('wheels and upkeep', () => {
     expect(row.wheel?.passesSinceMount).toBe(11);
 
     // A second correction of the same record replaces the first one's count, it does not add to it: 7 + 5.
-    const again = await write(technician, `/api/rinks/${desk.world.slug}/sharpenings/${originalId}/corrections`, {
-      reason: 'Recounted: 7 passes',
-      hollowNm: HALF_INCH_NM,
-      passes: 7,
-      bladeWidthNm: HOCKEY_WIDTH_NM,
-    });
+    const again = await correct(7, 'Recounted: 7 passes');
     expect(again.status).toBe(201);
     expect((await stationRow(technician, desk)).wheel?.passesSinceMount).toBe(12);
     // What the wheel had done at a time: nothing before the pairs were logged, all 12 after them.

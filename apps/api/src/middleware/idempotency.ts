@@ -56,7 +56,8 @@ export async function once(
 ): Promise<StoredAnswer> {
   const { key, route, hash } = claim;
   const where = eq(idempotencyKey.key, key);
-  const answered = (answer: StoredAnswer) => ({ key, route, requestHash: hash, statusCode: answer.status, responseBody: JSON.stringify(answer.body) });
+  const claimed = { key, route, requestHash: hash };
+  const stored = (answer: StoredAnswer) => ({ statusCode: answer.status, responseBody: JSON.stringify(answer.body) });
   const scope = scoped(tenantId);
   const replay = async (error: unknown) => {
     const first = await scope.findOne(idempotencyKey, where);
@@ -67,7 +68,7 @@ export async function once(
     try {
       return await scope.transaction(async (tx) => {
         const answer = await work(tx);
-        await tx.insert(idempotencyKey, answered(answer));
+        await tx.insert(idempotencyKey, { ...claimed, ...stored(answer) });
         return answer;
       });
     } catch (error) {
@@ -77,7 +78,7 @@ export async function once(
     }
   }
   try {
-    await scope.insert(idempotencyKey, { ...answered({ status: 0, body: null }), responseBody: '' });
+    await scope.insert(idempotencyKey, { ...claimed, statusCode: 0, responseBody: '' });
   } catch (error) {
     if (!isDuplicateKey(error)) throw error;
     return replay(error);
@@ -90,7 +91,6 @@ export async function once(
     await scope.remove(idempotencyKey, where);
     throw error;
   }
-  const { statusCode, responseBody } = answered(answer);
-  await scope.update(idempotencyKey, { statusCode, responseBody }, where);
+  await scope.update(idempotencyKey, stored(answer), where);
   return answer;
 }

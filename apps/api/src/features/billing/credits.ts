@@ -43,9 +43,9 @@ const entryOut = (op: ledger.Operation): EntryResponse => {
 };
 
 /**
- * One credit off the customer's account, in the route's transaction (it is atomic, so the route has replayed any
- * earlier use of the key): the account's lock is the first read, so the lots read after it are the ones every other
- * redemption left.
+ * One credit off the customer's account, in the route's transaction (it is atomic: a repeat of the key fails on the
+ * entry's unique key and the route replays the first answer). The account's lock is the first read, so the lots
+ * read after it are the ones every other redemption left.
  */
 export async function redeemCredit(s: Scope, ctx: RinkContext, customerId: string, key: string, input: { ticketPairId: string | null; note: string | null }): Promise<EntryResponse> {
   const account = await ledger.lockSkaterAccount(s, customerId);
@@ -58,7 +58,7 @@ export async function redeemCredit(s: Scope, ctx: RinkContext, customerId: strin
     key: `redeem:${key}`,
     actor: { userId: ctx.userId, source: input.ticketPairId ? 'ticket' : 'staff', sourceId: input.ticketPairId, reason: input.note },
     locked: true,
-    replayChecked: true,
+    callerReplays: true,
   });
   return entryOut(op);
 }

@@ -98,9 +98,10 @@ export async function historyOf(s: Scope, accountIds: string[], limit = 200): Pr
   return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
 }
 
+const usableCredits = (lots: repo.LotWithContext[], now: Date) => lots.filter((l) => redeemable(l, now)).reduce((n, l) => n + l.remaining, 0);
+
 async function usableBalance(s: Scope, accountId: string, now: Date): Promise<number> {
-  const lots = await repo.lotsOf(s, [accountId], { liveOnly: true });
-  return lots.filter((l) => redeemable(l, now)).reduce((n, l) => n + l.remaining, 0);
+  return usableCredits(await repo.lotsOf(s, [accountId], { liveOnly: true }), now);
 }
 
 // ---- the one way entries are written ------------------------------------------------------------------------
@@ -122,17 +123,17 @@ function balanceAfter(lots: repo.LotWithContext[], remainingBefore: Map<string, 
     ...lots.map((l) => ({ ...l, remaining: (remainingBefore.get(l.id) ?? 0) + (moved.get(l.id) ?? 0) })),
     ...[...new Map(opened.map((l) => [l.id, l])).values()].map((l) => ({ ...l, remaining: moved.get(l.id) ?? 0, productName: null, membershipState: null, membershipGraceUntil: null })),
   ];
-  return after.filter((l) => redeemable(l, now)).reduce((n, l) => n + l.remaining, 0);
+  return usableCredits(after, now);
 }
 
 interface OperateOptions {
   /** The caller's transaction holds the account's lock already. */
   locked?: boolean;
   /**
-   * The caller looked for an earlier use of the key itself (an atomic route's replay), so the operation does not:
-   * a concurrent first use still fails on the entries' unique key, and the caller replays that one's answer.
+   * The caller replays an earlier use of the key itself (an atomic route), so the operation does not look for one:
+   * a repeat fails on the entries' unique key, rolls back, and the caller answers with the first one's answer.
    */
-  replayChecked?: boolean;
+  callerReplays?: boolean;
 }
 
 /**
@@ -154,7 +155,7 @@ async function operate(
       if (!account) throw AppError.notFound('No such credit account');
     }
     const now = new Date();
-    const earlier = options.replayChecked ? undefined : await repo.findEntryByKey(tx, key);
+    const earlier = options.callerReplays ? undefined : await repo.findEntryByKey(tx, key);
     if (earlier) {
       return { entries: await repo.entriesOfOperation(tx, earlier.operationId), balance: await usableBalance(tx, accountId, now), replayed: true };
     }
@@ -235,7 +236,7 @@ export function redeem(s: Scope, input: { accountId: string; key: string; actor:
       throw new AppError('insufficient_credits', held ? 'The membership’s payment failed and its grace has run out: its credits are kept, and usable again once it is paid' : 'No credits left on this account');
     }
     return [{ lot, kind: 'redeem', credits: -1 }];
-  }, { locked: input.locked, replayChecked: input.replayChecked });
+  }, { locked: input.locked, callerReplays: input.callerReplays });
 }
 
 /** Takes `credits` from the usable lots, first to expire first (a negative adjustment, or a transfer out). */
