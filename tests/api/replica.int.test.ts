@@ -10,7 +10,7 @@ import mysql from 'mysql2/promise';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { QualityReport, ThroughputReport } from '@rinkwright/core';
-import { connectReportsDb, reportWorkHour } from '@rinkwright/db';
+import { connectReportsDb, reportWorkDay } from '@rinkwright/db';
 import { createService, createSharpening, createStation, createTicket } from '@rinkwright/db/testing';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { createApp, type AppBundle } from '../../apps/api/src/app';
@@ -119,7 +119,7 @@ describe('reports from a MariaDB replica', () => {
 
   /** Pairs in the primary's own summary rows: what a report reading the primary would count. */
   async function primaryPairs(): Promise<number> {
-    const rows = await currentDb().select({ pairs: reportWorkHour.pairs }).from(reportWorkHour).where(eq(reportWorkHour.tenantId, rink.id));
+    const rows = await currentDb().select({ pairs: reportWorkDay.pairs }).from(reportWorkDay).where(eq(reportWorkDay.tenantId, rink.id));
     return rows.reduce((sum, row) => sum + row.pairs, 0);
   }
 

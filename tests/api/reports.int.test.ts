@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { levelReading, scoped, ticket } from '@rinkwright/db';
+import { levelReading, scoped, ticket, wheel, wheelEvent } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { createSharpening, createStation, createTicket } from '@rinkwright/db/testing';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -18,6 +18,7 @@ const api = buildTestApp();
 let desk: Desk;
 let manager: Client;
 let stationB: { id: string; name: string };
+const wheelId = crypto.randomUUID();
 const local = (iso: string) => new Date(`${iso}-05:00`);
 
 beforeAll(async () => {
@@ -42,12 +43,15 @@ beforeAll(async () => {
     await db.update(ticket).set({ state: 'ready', readyAt: local(t.ready) }).where(eq(ticket.id, created.id));
     made.push(created);
   }
+  // Station One's wheel, mounted a month before the period at 200 mm (minimum 150 mm) and dressed on the 3rd.
+  await db.insert(wheel).values({ id: wheelId, tenantId: desk.world.id, stationId: desk.station.id, label: 'Report wheel', grit: 80, diameterNewNm: 200_000_000, minDiameterNm: 150_000_000, ratedMaxRpm: 4000, mountedAt: local('2026-10-01T08:00:00'), mountedBy: t2 });
+  await db.insert(wheelEvent).values({ id: crypto.randomUUID(), tenantId: desk.world.id, wheelId, stationId: desk.station.id, kind: 'dressing', hollowNm: 12_700_000, diameterNm: 199_987_000, at: local('2026-11-03T12:00:00'), byUserId: t2 });
   const [a, b, c, d] = made as [(typeof made)[0], (typeof made)[0], (typeof made)[0], (typeof made)[0]];
-  await createSharpening(db, desk.world.id, { ticketId: a.id, pairId: a.pairIds[0]!, stationId: desk.station.id, technicianId: t1, passes: 4, readingsNm: [0, 38_100], doneAt: local('2026-11-02T09:10:00') });
-  const rerun = await createSharpening(db, desk.world.id, { ticketId: a.id, pairId: a.pairIds[1]!, stationId: desk.station.id, technicianId: t1, passes: 5, readingsNm: [-12_700, 63_500], doneAt: local('2026-11-02T09:40:00') });
+  await createSharpening(db, desk.world.id, { ticketId: a.id, pairId: a.pairIds[0]!, stationId: desk.station.id, wheelId, technicianId: t1, passes: 4, readingsNm: [0, 38_100], doneAt: local('2026-11-02T09:10:00') });
+  const rerun = await createSharpening(db, desk.world.id, { ticketId: a.id, pairId: a.pairIds[1]!, stationId: desk.station.id, wheelId, technicianId: t1, passes: 5, readingsNm: [-12_700, 63_500], doneAt: local('2026-11-02T09:40:00') });
   await createSharpening(db, desk.world.id, { ticketId: b.id, pairId: b.pairIds[0]!, stationId: stationB.id, technicianId: t2, passes: 3, readingsNm: [20_000, -30_000], doneAt: local('2026-11-02T14:05:00') });
   await createSharpening(db, desk.world.id, { ticketId: c.id, pairId: c.pairIds[0]!, stationId: stationB.id, technicianId: t1, passes: 4, readingsNm: [10_000, 10_000], doneAt: local('2026-11-03T23:30:00') });
-  await createSharpening(db, desk.world.id, { ticketId: d.id, pairId: d.pairIds[0]!, stationId: desk.station.id, technicianId: t1, passes: 4, readingsNm: [0, 0], doneAt: local('2026-10-31T10:10:00') });
+  await createSharpening(db, desk.world.id, { ticketId: d.id, pairId: d.pairIds[0]!, stationId: desk.station.id, wheelId, technicianId: t1, passes: 4, readingsNm: [0, 0], doneAt: local('2026-10-31T10:10:00') });
   // The off right blade of the second pair is run again: one re-run.
   await db.insert(levelReading).values({ id: crypto.randomUUID(), tenantId: desk.world.id, stationId: desk.station.id, sharpeningId: rerun.id, kind: 'sharpening', blade: 'right', attempt: 2, readingNm: 5_000, takenAt: local('2026-11-02T09:42:00'), takenBy: t1 });
 });
@@ -112,6 +116,16 @@ describe('quality', () => {
     const one = res.body.tables.byStation.find((r: { stationId: string }) => r.stationId === desk.station.id);
     // Station One: 0 and −12,700 true, 38,100 fair, 63,500 off; mean (0 + 38,100 + 12,700 + 63,500) / 4 = 28,575.
     expect(one).toMatchObject({ firstReadings: 4, trueShare: 0.5, fairShare: 0.25, offShare: 0.25, reRunRate: 0.25, meanAbsReadingNm: 28_575 });
+  });
+
+  it('gives a wheel its pairs and passes since mounting, and the passes its dressings predict', async () => {
+    const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/quality?${period}`);
+    // Three pairs on the wheel since it was mounted (one before the period): 4 + 5 + 4 = 13 passes, all before the
+    // dressing on the 3rd. 200 mm new, 199.987 mm after 13 passes: 1,000 nm a pass (a straight line through two
+    // points), so (199,987,000 − 150,000,000) / 1,000 = 49,987 passes are left: 13 + 49,987 = 50,000 in all.
+    expect(res.body.tables.wheels).toEqual([
+      { wheelId, wheel: 'Report wheel', station: 'Station One', mountedAt: local('2026-10-01T08:00:00').toISOString(), removedAt: null, pairs: 3, passes: 13, predictedPasses: 50_000 },
+    ]);
   });
 });
 

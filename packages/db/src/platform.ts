@@ -1,6 +1,6 @@
 import { desc, eq, sql } from 'drizzle-orm';
 import { currentDb } from './client';
-import { customer, member, reportMoneyDay, reportWorkHour, rink, rinkBilling, station } from './schema/index';
+import { customer, member, reportMoneyDay, reportWorkDay, rink, rinkBilling, station } from './schema/index';
 
 // Reads across every rink, for the platform admin only (the route table gates them with access 'platform').
 export async function listRinksWithCounts() {
@@ -23,7 +23,7 @@ export async function listRinksWithCounts() {
       suspendedAt: rinkBilling.suspendedAt,
       suspendedReason: rinkBilling.suspendedReason,
       // From the report summaries: pairs and platform fees of the last 30 days.
-      pairs30d: sql<number>`(select coalesce(sum(${reportWorkHour.pairs}), 0) from ${reportWorkHour} where ${reportWorkHour.tenantId} = ${rink.id} and ${reportWorkHour.day} >= ${since})`.mapWith(Number),
+      pairs30d: sql<number>`(select coalesce(sum(${reportWorkDay.pairs}), 0) from ${reportWorkDay} where ${reportWorkDay.tenantId} = ${rink.id} and ${reportWorkDay.day} >= ${since})`.mapWith(Number),
       feesMinor30d: sql<number>`(select coalesce(sum(${reportMoneyDay.feesMinor}), 0) from ${reportMoneyDay} where ${reportMoneyDay.tenantId} = ${rink.id} and ${reportMoneyDay.day} >= ${since})`.mapWith(Number),
     })
     .from(rink)

@@ -1,5 +1,5 @@
 import { bandsFor, classifyLevel, DRIFT_DEFAULTS, TURNAROUND_BUCKET_MINUTES, TURNAROUND_LAST_BUCKET, type LevelBands } from '@rinkwright/core';
-import { scoped, type Scope } from '@rinkwright/db';
+import { hourKey, scoped, type Scope } from '@rinkwright/db';
 import { readDeskSettings } from '../../lib/desk-settings';
 import { driftAlertOf, DRIFT_WINDOW } from '../../lib/drift';
 import { consecutiveRuns, localClock, nextDay, type LocalClock } from './local-time';
@@ -69,35 +69,41 @@ async function rebuildDays(s: Scope, clock: LocalClock, run: { first: string; la
   ]);
 
   const corrected = new Set(sharpenings.flatMap((sh) => (sh.correctsId ? [sh.correctsId] : [])));
-  const work = new Map<string, repo.WorkHourRow>();
-  const workOf = new Map<string, repo.WorkHourRow>();
-  for (const sh of sharpenings) {
-    const { day, hour } = clock.of(sh.doneAt);
-    const k = key(day, hour, sh.stationId, sh.technicianId, sh.wheelId);
-    let row = work.get(k);
-    if (!row) {
-      row = { day, hour, stationId: sh.stationId, technicianId: sh.technicianId, wheelId: sh.wheelId ?? '', pairs: 0, passes: 0, firstReadings: 0, firstTrue: 0, firstFair: 0, firstOff: 0, reruns: 0, firstAbsNm: 0, staffedTotal: 0, staffedStation: 0 };
-      work.set(k, row);
-    }
-    // A correction replaces an earlier record of the same pair: the pair counts once, the passes of the latest record.
-    if (!sh.correctsId) row.pairs += 1;
-    if (!corrected.has(sh.id)) row.passes += sh.passes;
-    workOf.set(sh.id, row);
-  }
-  // Each staffed hour is marked on exactly one row: once per technician, and once per technician at a station.
+  const work = new Map<string, repo.WorkDayRow>();
+  const wheels = new Map<string, repo.WheelDayRow>();
+  const workOf = new Map<string, repo.WorkDayRow>();
+  // Each staffed hour counts once: once per technician, and once per technician at a station.
   const staffedBy = new Set<string>();
   const staffedAt = new Set<string>();
-  for (const row of work.values()) {
-    if (row.pairs === 0) continue;
-    const byTechnician = key(row.day, row.hour, row.technicianId);
-    const atStation = key(row.day, row.hour, row.stationId, row.technicianId);
+  for (const sh of sharpenings) {
+    const { day, hour } = clock.of(sh.doneAt);
+    const k = key(day, sh.stationId, sh.technicianId);
+    let row = work.get(k);
+    if (!row) {
+      row = { day, stationId: sh.stationId, technicianId: sh.technicianId, pairs: 0, firstReadings: 0, firstTrue: 0, firstFair: 0, firstOff: 0, reruns: 0, firstAbsNm: 0, staffedTotal: 0, staffedStation: 0 };
+      work.set(k, row);
+    }
+    workOf.set(sh.id, row);
+    // A correction replaces an earlier record of the same pair: the pair counts once, the passes of the latest record.
+    if (sh.wheelId) {
+      const w = key(sh.wheelId, day);
+      const wheelRow = wheels.get(w) ?? { wheelId: sh.wheelId, day, pairs: 0, passes: 0 };
+      wheels.set(w, wheelRow);
+      if (!corrected.has(sh.id)) wheelRow.passes += sh.passes;
+      if (!sh.correctsId) wheelRow.pairs += 1;
+    }
+    if (sh.correctsId) continue;
+    row.pairs += 1;
+    row[hourKey(hour)] = (row[hourKey(hour)] ?? 0) + 1;
+    const byTechnician = key(day, hour, sh.technicianId);
+    const atStation = key(day, hour, sh.stationId, sh.technicianId);
     if (!staffedBy.has(byTechnician)) {
       staffedBy.add(byTechnician);
-      row.staffedTotal = 1;
+      row.staffedTotal += 1;
     }
     if (!staffedAt.has(atStation)) {
       staffedAt.add(atStation);
-      row.staffedStation = 1;
+      row.staffedStation += 1;
     }
   }
   const stationOfSharpening = new Map(sharpenings.map((sh) => [sh.id, sh.stationId]));
@@ -164,7 +170,7 @@ async function rebuildDays(s: Scope, clock: LocalClock, run: { first: string; la
   const driftDays: repo.DriftDayRow[] = [];
   for (const stationId of await repo.stationsWithSeriesIn(s, range)) driftDays.push(...(await driftTransitions(s, clock, stationId, range, drift)));
 
-  await repo.replaceDays(s, run, { work: [...work.values()], turnaround: [...turnaround.values()], money: [...money.values()], credit: [...credit.values()], drift: driftDays });
+  await repo.replaceDays(s, run, { work: [...work.values()], wheels: [...wheels.values()], turnaround: [...turnaround.values()], money: [...money.values()], credit: [...credit.values()], drift: driftDays });
   return Math.round((range.end.getTime() - range.start.getTime()) / 86_400_000);
 }
 

@@ -18,7 +18,10 @@ import {
   reportMoneyDay,
   reportRefresh,
   reportTurnaround,
-  reportWorkHour,
+  reportWheelDay,
+  reportWorkDay,
+  HOURS,
+  hourKey,
   sharpening,
   station,
   ticket,
@@ -153,7 +156,8 @@ export async function entriesIn(s: Scope, r: Range) {
 
 // ---- summary rows: a range of days is replaced as a whole ----------------------------------------------------------
 
-export type WorkHourRow = Omit<typeof reportWorkHour.$inferInsert, 'tenantId'>;
+export type WorkDayRow = Omit<typeof reportWorkDay.$inferInsert, 'tenantId'>;
+export type WheelDayRow = Omit<typeof reportWheelDay.$inferInsert, 'tenantId'>;
 export type TurnaroundRow = Omit<typeof reportTurnaround.$inferInsert, 'tenantId'>;
 export type MoneyDayRow = Omit<typeof reportMoneyDay.$inferInsert, 'tenantId'>;
 export type CreditDayRow = Omit<typeof reportCreditDay.$inferInsert, 'tenantId'>;
@@ -162,10 +166,11 @@ export type DriftDayRow = Omit<typeof reportDriftDay.$inferInsert, 'tenantId'>;
 export async function replaceDays(
   s: Scope,
   days: { first: string; last: string },
-  rows: { work: WorkHourRow[]; turnaround: TurnaroundRow[]; money: MoneyDayRow[]; credit: CreditDayRow[]; drift: DriftDayRow[] },
+  rows: { work: WorkDayRow[]; wheels: WheelDayRow[]; turnaround: TurnaroundRow[]; money: MoneyDayRow[]; credit: CreditDayRow[]; drift: DriftDayRow[] },
 ): Promise<void> {
   const tables = [
-    [reportWorkHour, rows.work],
+    [reportWorkDay, rows.work],
+    [reportWheelDay, rows.wheels],
     [reportTurnaround, rows.turnaround],
     [reportMoneyDay, rows.money],
     [reportCreditDay, rows.credit],
@@ -179,7 +184,7 @@ export async function replaceDays(
 
 /** Removes summary rows outside a span of days (all of them without one): a full rebuild leaves nothing stale. */
 export async function clearOutside(s: Scope, span: { first: string; last: string } | null): Promise<void> {
-  for (const table of [reportWorkHour, reportTurnaround, reportMoneyDay, reportCreditDay, reportDriftDay]) {
+  for (const table of [reportWorkDay, reportWheelDay, reportTurnaround, reportMoneyDay, reportCreditDay, reportDriftDay]) {
     await s.remove(table, span ? sql`(${table.day} < ${span.first} or ${table.day} > ${span.last})` : sql`1 = 1`);
   }
 }
@@ -195,37 +200,29 @@ export interface SummaryFilter {
 
 const dayIn = (column: AnyMySqlColumn, f: SummaryFilter) => sql`${column} >= ${f.from} and ${column} <= ${f.to}`;
 const workWhere = (f: SummaryFilter) =>
-  and(dayIn(reportWorkHour.day, f), f.stationId ? eq(reportWorkHour.stationId, f.stationId) : undefined, f.technicianId ? eq(reportWorkHour.technicianId, f.technicianId) : undefined);
+  and(dayIn(reportWorkDay.day, f), f.stationId ? eq(reportWorkDay.stationId, f.stationId) : undefined, f.technicianId ? eq(reportWorkDay.technicianId, f.technicianId) : undefined);
 
 const workSums = {
-  pairs: sum(reportWorkHour.pairs),
-  passes: sum(reportWorkHour.passes),
-  firstReadings: sum(reportWorkHour.firstReadings),
-  firstTrue: sum(reportWorkHour.firstTrue),
-  firstFair: sum(reportWorkHour.firstFair),
-  firstOff: sum(reportWorkHour.firstOff),
-  reruns: sum(reportWorkHour.reruns),
-  firstAbsNm: sum(reportWorkHour.firstAbsNm),
+  pairs: sum(reportWorkDay.pairs),
+  firstReadings: sum(reportWorkDay.firstReadings),
+  firstTrue: sum(reportWorkDay.firstTrue),
+  firstFair: sum(reportWorkDay.firstFair),
+  firstOff: sum(reportWorkDay.firstOff),
+  reruns: sum(reportWorkDay.reruns),
+  firstAbsNm: sum(reportWorkDay.firstAbsNm),
 };
 type WorkSums = { [K in keyof typeof workSums]: number };
 
-export type WorkGrouping = 'all' | 'station' | 'technician' | 'day' | 'weekdayHour';
+export type WorkGrouping = 'all' | 'station' | 'technician' | 'day';
 
 /**
- * Work summed by one grouping, in the database, so a long period never brings its hour rows over the wire. Staffed
+ * Work summed by one grouping, in the database, so a long period never brings its day rows over the wire. Staffed
  * hours are the distinct (day, hour, technician) with a pair, summed from the rows the refresh marked.
  */
 export async function workBy(s: Scope, f: SummaryFilter, by: WorkGrouping) {
-  const w = reportWorkHour;
-  const weekday = sql<number>`weekday(${w.day}) + 1`.mapWith(Number);
-  const keys: Record<string, AnyMySqlColumn | SQL> = {
-    all: {},
-    station: { stationId: w.stationId },
-    technician: { technicianId: w.technicianId },
-    day: { day: w.day },
-    weekdayHour: { weekday, hour: w.hour },
-  }[by];
-  const groupBy = { all: [], station: [w.stationId], technician: [w.technicianId], day: [w.day], weekdayHour: [sql`weekday(${w.day})`, w.hour] }[by];
+  const w = reportWorkDay;
+  const keys: Record<string, AnyMySqlColumn> = { all: {}, station: { stationId: w.stationId }, technician: { technicianId: w.technicianId }, day: { day: w.day } }[by];
+  const groupBy = { all: [], station: [w.stationId], technician: [w.technicianId], day: [w.day] }[by];
   const rows = await s.findJoined(w, {
     fields: {
       ...keys,
@@ -243,25 +240,37 @@ export async function workBy(s: Scope, f: SummaryFilter, by: WorkGrouping) {
       stationId: (row.stationId as string | undefined) ?? '',
       technicianId: (row.technicianId as string | undefined) ?? '',
       day: (row.day as string | undefined) ?? '',
-      weekday: n(row.weekday),
-      hour: n(row.hour),
       staffedHours: n(row.staffedHours),
       ...(Object.fromEntries(Object.keys(workSums).map((k) => [k, n(row[k])])) as WorkSums),
     };
   });
 }
 
+/** Pairs by ISO weekday (1 = Monday) and local hour, for the heat map: only the weekdays and hours that had any. */
+export async function pairsByWeekdayHour(s: Scope, f: SummaryFilter) {
+  const w = reportWorkDay;
+  const weekday = sql<number>`weekday(${w.day}) + 1`.mapWith(Number);
+  const rows = await s.findJoined(w, {
+    fields: { weekday, ...Object.fromEntries(HOURS.map((h) => [hourKey(h), sum(w[hourKey(h)])])) },
+    joins: [],
+    where: workWhere(f),
+    groupBy: [sql`weekday(${w.day})`],
+  });
+  return rows.flatMap((r) => {
+    const row = r as Record<string, unknown>;
+    return HOURS.map((hour) => ({ weekday: n(row.weekday), hour, pairs: n(row[hourKey(hour)]) })).filter((x) => x.pairs > 0);
+  });
+}
+
 /** Pairs and passes of each wheel per local day (a wheel's life, and the passes before each of its dressings). */
 export async function wheelDays(s: Scope, wheelIds: string[]) {
   if (wheelIds.length === 0) return [];
-  const rows = await s.findJoined(reportWorkHour, {
-    fields: { wheelId: reportWorkHour.wheelId, day: reportWorkHour.day, pairs: sum(reportWorkHour.pairs), passes: sum(reportWorkHour.passes) },
+  return s.findJoined(reportWheelDay, {
+    fields: { wheelId: reportWheelDay.wheelId, day: reportWheelDay.day, pairs: reportWheelDay.pairs, passes: reportWheelDay.passes },
     joins: [],
-    where: inArray(reportWorkHour.wheelId, wheelIds),
-    groupBy: [reportWorkHour.wheelId, reportWorkHour.day],
-    orderBy: asc(reportWorkHour.day),
+    where: inArray(reportWheelDay.wheelId, wheelIds),
+    orderBy: asc(reportWheelDay.day),
   });
-  return rows.map((r) => ({ wheelId: r.wheelId, day: r.day, pairs: n(r.pairs), passes: n(r.passes) }));
 }
 
 export async function turnaroundRows(s: Scope, f: SummaryFilter) {

@@ -77,7 +77,7 @@ export async function throughput(s: Scope, q: ReportQuery): Promise<ThroughputRe
     repo.workBy(s, f, 'station'),
     repo.workBy(s, f, 'technician'),
     repo.workBy(s, f, 'day'),
-    repo.workBy(s, f, 'weekdayHour'),
+    repo.pairsByWeekdayHour(s, f),
   ]);
   const stationName = new Map(stations.map((st) => [st.id, st.name]));
   const personName = new Map(people.map((p) => [p.id, p.name]));
@@ -99,7 +99,7 @@ export async function throughput(s: Scope, q: ReportQuery): Promise<ThroughputRe
       byTechnician: byTechnician
         .map((r) => ({ technicianId: r.technicianId, technician: personName.get(r.technicianId) ?? 'Former staff', ...perHour(r) }))
         .sort((a, b) => a.technician.localeCompare(b.technician)),
-      byHour: byHour.map((r) => ({ weekday: r.weekday, hour: r.hour, pairs: r.pairs })).sort((a, b) => a.weekday - b.weekday || a.hour - b.hour),
+      byHour: byHour.sort((a, b) => a.weekday - b.weekday || a.hour - b.hour),
     },
   };
 }
@@ -157,7 +157,10 @@ export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<Q
   const wheelRows = wheels.map((w) => {
     const days = usage.filter((u) => u.wheelId === w.id);
     // Passes before each measured diameter, to the day: the summaries count passes per local day.
-    const passesBefore = (at: Date) => days.filter((d) => d.day < clock.of(at).day).reduce((n, d) => n + d.passes, 0);
+    const passesBefore = (at: Date) => {
+      const day = clock.of(at).day;
+      return days.reduce((n, d) => (d.day < day ? n + d.passes : n), 0);
+    };
     const points = [{ passes: 0, diameterNm: w.diameterNewNm, at: w.mountedAt }, ...events.filter((e) => e.wheelId === w.id && e.kind === 'dressing' && e.diameterNm !== null).map((e) => ({ passes: passesBefore(e.at), diameterNm: e.diameterNm!, at: e.at }))];
     const wear = wheelWear({ points, minDiameterNm: w.minDiameterNm, now: range.end });
     return {

@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import { and, asc, count, desc, eq, gte, inArray, isNull, or, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, gte, inArray, isNotNull, isNull, or, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import { levelReading, levelingAdjustment, scoped, sharpening, station, ticket, user, wheel, wheelEvent } from '@rinkwright/db';
 import type { StationInput } from '@rinkwright/core';
@@ -56,7 +56,8 @@ async function passesOnWheels(tenantId: string, wheelIds: string[], times: (Date
     s.findJoined(sharpening, { fields: { wheelId: sharpening.wheelId, ...sums }, joins: [], where: and(inArray(sharpening.wheelId, wheelIds), isNull(sharpening.correctsId)), groupBy: [sharpening.wheelId] }),
     s.findJoined(corrected, {
       fields: { originalId: corrected.id, wheelId: corrected.wheelId, doneAt: corrected.doneAt, was: corrected.passes, passes: sharpening.passes, createdAt: sharpening.createdAt, id: sharpening.id },
-      joins: [{ table: sharpening, on: and(eq(sharpening.tenantId, corrected.tenantId), eq(sharpening.correctsId, corrected.id))! }],
+      // `corrects_id is not null` lets the join start from the few corrections (their index) rather than every record.
+      joins: [{ table: sharpening, on: and(eq(sharpening.tenantId, corrected.tenantId), isNotNull(sharpening.correctsId), eq(sharpening.correctsId, corrected.id))! }],
       where: and(inArray(corrected.wheelId, wheelIds), isNull(corrected.correctsId)),
     }),
   ]);
