@@ -21,6 +21,18 @@ const RECENT = 30;
 
 const average = (values: number[]) => values.reduce((sum, v) => sum + v, 0) / values.length;
 
+/** The first index of an ascending list at which `reached` holds (the list's length when it never does). */
+function firstIndex(sorted: number[], reached: (value: number) => boolean): number {
+  let lo = 0;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (reached(sorted[mid]!)) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
+}
+
 export interface StationHistory {
   station: StationRow & { ownTrueNm: number | null; ownFairNm: number | null };
   settings: DeskSettings;
@@ -57,10 +69,18 @@ export function assessStation(h: StationHistory): StationDetail {
       : { status: watch.status, alert: false, reasons: [], mean: null, ucl: null, lcl: null, ewma: [], ewmaUcl: null, ewmaLcl: null };
 
   const byTime = [...h.adjustments].sort((a, b) => a.at.getTime() - b.at.getTime());
+  // The series is oldest first: each adjustment finds its place by bisection, not by a pass over every reading.
+  const times = series.map((r) => r.takenAt.getTime());
   const adjustments = byTime.map((adj, i) => {
+    const at = adj.at.getTime();
     const next = byTime[i + 1]?.at.getTime() ?? Infinity;
-    const before = series.filter((r) => r.takenAt < adj.at).slice(-WINDOW).map((r) => r.readingNm);
-    const after = series.filter((r) => r.takenAt > adj.at && r.takenAt.getTime() < next).slice(0, WINDOW).map((r) => r.readingNm);
+    const start = firstIndex(times, (t) => t >= at);
+    const before = series.slice(Math.max(0, start - WINDOW), start).map((r) => r.readingNm);
+    const after = series
+      .slice(firstIndex(times, (t) => t > at))
+      .slice(0, WINDOW)
+      .filter((r) => r.takenAt.getTime() < next)
+      .map((r) => r.readingNm);
     return { ...adj, beforeNm: before.length ? average(before) : null, afterNm: after.length ? average(after) : null };
   });
   const lastAdjustment = byTime[byTime.length - 1]?.at;

@@ -7,7 +7,8 @@ import type { StationInput } from '@rinkwright/core';
 /** An original sharpening, joined to the corrections that point at it. */
 const corrected = alias(sharpening, 'corrected');
 
-export const listStations = (tenantId: string) => scoped(tenantId).find(station, { orderBy: asc(station.name) });
+/** The rink's stations by name, or just the one asked for. */
+export const listStations = (tenantId: string, onlyId?: string) => scoped(tenantId).find(station, { where: onlyId ? eq(station.id, onlyId) : undefined, orderBy: asc(station.name) });
 
 export const findStation = (tenantId: string, stationId: string) => scoped(tenantId).findOne(station, eq(station.id, stationId));
 
@@ -23,7 +24,7 @@ export const stationNameTaken = async (tenantId: string, name: string, exceptId?
   return rows.some((r) => r.id !== exceptId);
 };
 
-export const currentWheels = (tenantId: string) => scoped(tenantId).find(wheel, { where: isNull(wheel.removedAt) });
+export const currentWheels = (tenantId: string, stationId?: string) => scoped(tenantId).find(wheel, { where: and(isNull(wheel.removedAt), stationId ? eq(wheel.stationId, stationId) : undefined) });
 
 export const wheelEvents = (tenantId: string, wheelIds: string[]) =>
   wheelIds.length === 0 ? Promise.resolve([]) : scoped(tenantId).find(wheelEvent, { where: inArray(wheelEvent.wheelId, wheelIds), orderBy: asc(wheelEvent.at) });
@@ -122,20 +123,12 @@ export const addAdjustment = (tenantId: string, row: Omit<typeof levelingAdjustm
 
 export const addCheckReading = (tenantId: string, row: Omit<typeof levelReading.$inferInsert, 'tenantId'>) => scoped(tenantId).insert(levelReading, row);
 
-/** The station's first readings of each blade (attempt 1) and its check readings, oldest first, since a time. */
+/** The drift watch's series of a station since a time, oldest first: its first readings of each blade (attempt 1) and its check readings. */
 export function readingsSince(tenantId: string, stationId: string, since: Date) {
   return scoped(tenantId).findJoined(levelReading, {
-    fields: {
-      id: levelReading.id,
-      kind: levelReading.kind,
-      blade: levelReading.blade,
-      attempt: levelReading.attempt,
-      readingNm: levelReading.readingNm,
-      takenAt: levelReading.takenAt,
-      sharpeningId: levelReading.sharpeningId,
-    },
+    fields: { kind: levelReading.kind, attempt: levelReading.attempt, readingNm: levelReading.readingNm, takenAt: levelReading.takenAt },
     joins: [],
-    where: and(eq(levelReading.stationId, stationId), gte(levelReading.takenAt, since)),
+    where: and(eq(levelReading.stationId, stationId), gte(levelReading.takenAt, since), or(eq(levelReading.kind, 'check'), eq(levelReading.attempt, 1))),
     orderBy: [asc(levelReading.takenAt), asc(levelReading.id)],
   });
 }

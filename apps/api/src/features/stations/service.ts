@@ -69,9 +69,14 @@ async function describeWheels(tenantId: string, wheels: WheelRow[]) {
 }
 
 export async function listStations(ctx: RinkContext): Promise<{ stations: StationRow[] }> {
+  return { stations: await stationRows(ctx) };
+}
+
+/** The rink's stations as the list shows them, or just one: a station's page need not work out every wheel's passes. */
+async function stationRows(ctx: RinkContext, onlyId?: string): Promise<StationRow[]> {
   const [stations, wheels, counts, settings] = await Promise.all([
-    repo.listStations(ctx.tenantId),
-    repo.currentWheels(ctx.tenantId),
+    repo.listStations(ctx.tenantId, onlyId),
+    repo.currentWheels(ctx.tenantId, onlyId),
     repo.queueCounts(ctx.tenantId),
     readDeskSettings(ctx.tenantId),
   ]);
@@ -80,26 +85,24 @@ export async function listStations(ctx: RinkContext): Promise<{ stations: Statio
     Promise.all(stations.map(async (s) => driftAlertOf(await repo.latestSeries(ctx.tenantId, s.id, DRIFT_WINDOW), settings))),
   ]);
   const countOf = (stationId: string, state: string) => counts.find((c) => c.stationId === stationId && c.state === state)?.n ?? 0;
-  return {
-    stations: stations.map((s, i) => ({
-      id: s.id,
-      name: s.name,
-      status: s.status,
-      rpm: s.rpm,
-      adjustUnit: s.adjustUnit,
-      adjustStepMilli: s.adjustStepMilli,
-      ownTrueNm: s.ownTrueNm,
-      ownFairNm: s.ownFairNm,
-      precision: s.precision,
-      wheel: wheelOf.get(s.id) ?? null,
-      queue: { waiting: countOf(s.id, 'waiting'), onStation: countOf(s.id, 'on_station') },
-      driftAlert: alerts[i] ?? false,
-    })),
-  };
+  return stations.map((s, i) => ({
+    id: s.id,
+    name: s.name,
+    status: s.status,
+    rpm: s.rpm,
+    adjustUnit: s.adjustUnit,
+    adjustStepMilli: s.adjustStepMilli,
+    ownTrueNm: s.ownTrueNm,
+    ownFairNm: s.ownFairNm,
+    precision: s.precision,
+    wheel: wheelOf.get(s.id) ?? null,
+    queue: { waiting: countOf(s.id, 'waiting'), onStation: countOf(s.id, 'on_station') },
+    driftAlert: alerts[i] ?? false,
+  }));
 }
 
 export async function stationRowOf(ctx: RinkContext, stationId: string): Promise<StationRow> {
-  const row = (await listStations(ctx)).stations.find((s) => s.id === stationId);
+  const [row] = await stationRows(ctx, stationId);
   if (!row) throw AppError.notFound(NOT_FOUND);
   return row;
 }
