@@ -53,38 +53,49 @@ export async function insertTicket(tenantId: string, row: Omit<TicketRow, 'tenan
   }
 }
 
-export function listTickets(
-  tenantId: string,
-  filter: { states: TicketState[]; stationId?: string | undefined; customerId?: string | undefined; ticketId?: string | undefined },
-) {
+/** A ticket as the lists show it: its customer, and how many of its pairs are done, counted in the query. */
+function summaryFields() {
   const pairs = sql<number>`(select count(*) from ${ticketPair} where ${ticketPair.tenantId} = ${ticket.tenantId} and ${ticketPair.ticketId} = ${ticket.id})`.mapWith(Number);
   const done = sql<number>`(select count(distinct ${sharpening.ticketPairId}) from ${sharpening} where ${sharpening.tenantId} = ${ticket.tenantId} and ${sharpening.ticketId} = ${ticket.id})`.mapWith(Number);
+  return {
+    id: ticket.id,
+    number: ticket.number,
+    state: ticket.state,
+    stationId: ticket.stationId,
+    payment: ticket.payment,
+    droppedAt: ticket.droppedAt,
+    promisedAt: ticket.promisedAt,
+    readyAt: ticket.readyAt,
+    customerId: customer.id,
+    customerName: customer.name,
+    memberCode: customer.memberCode,
+    pairCount: pairs,
+    pairsDone: done,
+  };
+}
+
+export function listTickets(tenantId: string, filter: { states: TicketState[]; stationId?: string | undefined; customerId?: string | undefined }) {
   return scoped(tenantId).findJoined(ticket, {
-    fields: {
-      id: ticket.id,
-      number: ticket.number,
-      state: ticket.state,
-      stationId: ticket.stationId,
-      payment: ticket.payment,
-      droppedAt: ticket.droppedAt,
-      promisedAt: ticket.promisedAt,
-      readyAt: ticket.readyAt,
-      customerId: customer.id,
-      customerName: customer.name,
-      memberCode: customer.memberCode,
-      pairCount: pairs,
-      pairsDone: done,
-    },
+    fields: summaryFields(),
     joins: [{ table: customer, on: eq(customer.id, ticket.customerId) }],
     where: and(
       inArray(ticket.state, filter.states),
       filter.stationId ? eq(ticket.stationId, filter.stationId) : undefined,
       filter.customerId ? eq(ticket.customerId, filter.customerId) : undefined,
-      filter.ticketId ? eq(ticket.id, filter.ticketId) : undefined,
     ),
     orderBy: filter.states.includes('collected') ? [desc(ticket.droppedAt)] : [asc(ticket.promisedAt), asc(ticket.number)],
     limit: 200,
   });
+}
+
+/** One ticket's summary with its notes, in whatever state it is. */
+export async function findTicketSummary(tenantId: string, ticketId: string) {
+  const [row] = await scoped(tenantId).findJoined(ticket, {
+    fields: { ...summaryFields(), notes: ticket.notes, voidReason: ticket.voidReason },
+    joins: [{ table: customer, on: eq(customer.id, ticket.customerId) }],
+    where: eq(ticket.id, ticketId),
+  });
+  return row;
 }
 
 export async function ticketParts(tenantId: string, ticketId: string) {

@@ -183,16 +183,16 @@ function toSummary(r: Awaited<ReturnType<typeof repo.listTickets>>[number]): Tic
 }
 
 export async function describeTicket(ctx: RinkContext, ticketId: string): Promise<TicketDetail> {
-  const found = await repo.findTicket(ctx.tenantId, ticketId);
-  if (!found) throw AppError.notFound(TICKET_NOT_FOUND);
-  // By id, not by filtering a page of the list: the list stops at 200 and a busy rink passes that.
-  const [summary] = await repo.listTickets(ctx.tenantId, { states: [found.state], ticketId });
+  const [summary, { pairs, sharpenings, readings, events }, names] = await Promise.all([
+    repo.findTicketSummary(ctx.tenantId, ticketId),
+    repo.ticketParts(ctx.tenantId, ticketId),
+    repo.stationNames(ctx.tenantId),
+  ]);
   if (!summary) throw AppError.notFound(TICKET_NOT_FOUND);
-  const [{ pairs, sharpenings, readings, events }, names] = await Promise.all([repo.ticketParts(ctx.tenantId, ticketId), repo.stationNames(ctx.tenantId)]);
   return {
     ...toSummary(summary),
-    notes: found.notes,
-    voidReason: found.voidReason,
+    notes: summary.notes,
+    voidReason: summary.voidReason,
     pairs: pairs.map((p) => ({
       ...p,
       sharpenings: sharpenings
@@ -225,7 +225,10 @@ async function requireTicket(ctx: RinkContext, ticketId: string) {
 }
 
 async function requireActiveStation(ctx: RinkContext, stationId: string) {
-  const found = await repo.findStation(ctx.tenantId, stationId);
+  return activeStation(await repo.findStation(ctx.tenantId, stationId));
+}
+
+function activeStation(found: Awaited<ReturnType<typeof repo.findStation>>) {
   if (!found) throw AppError.field('stationId', 'No such station at this rink');
   if (found.status !== 'active') throw AppError.field('stationId', `${found.name} is not active`);
   return found;
@@ -330,11 +333,19 @@ function assertOneReadingPerBlade(readings: ReadingInput[]) {
 }
 
 export async function logSharpening(ctx: RinkContext, ticketId: string, input: LogSharpeningInput): Promise<TicketDetail> {
-  const found = await requireTicket(ctx, ticketId);
+  // The checks read independent rows, so they are asked at once; their answers are weighed in this order.
+  const [found, station, wheel, pairOnTicket, alreadyLogged] = await Promise.all([
+    repo.findTicket(ctx.tenantId, ticketId),
+    repo.findStation(ctx.tenantId, input.stationId),
+    repo.mountedWheel(ctx.tenantId, input.stationId),
+    input.pairId ? repo.findPair(ctx.tenantId, ticketId, input.pairId) : undefined,
+    input.pairId ? repo.originalSharpeningsOfPair(ctx.tenantId, input.pairId) : 0,
+  ]);
+  if (!found) throw AppError.notFound(TICKET_NOT_FOUND);
   if (found.state !== 'waiting' && found.state !== 'on_station') {
     throw new AppError('conflict', `The ticket is ${found.state.replace('_', ' ')}: reopen it on a station to log more`);
   }
-  const target = await requireActiveStation(ctx, input.stationId);
+  const target = activeStation(station);
   assertOneReadingPerBlade(input.readings);
   let pairId = input.pairId;
   let newPair: Parameters<typeof repo.insertSharpening>[1]['newPair'];
@@ -356,12 +367,11 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
       notes: input.newPair.notes,
     };
   } else {
-    if (!pairId || !(await repo.findPair(ctx.tenantId, ticketId, pairId))) throw AppError.field('pairId', 'No such pair on this ticket');
-    if ((await repo.originalSharpeningsOfPair(ctx.tenantId, pairId)) > 0) throw new AppError('conflict', ALREADY_LOGGED);
+    if (!pairId || !pairOnTicket) throw AppError.field('pairId', 'No such pair on this ticket');
+    if (alreadyLogged > 0) throw new AppError('conflict', ALREADY_LOGGED);
   }
   const now = new Date();
   const sharpeningId = randomUUID();
-  const wheel = await repo.mountedWheel(ctx.tenantId, target.id);
   const outcome = await repo.insertSharpening(ctx.tenantId, {
     ticketId,
     putOn: { stationId: target.id, at: now, byUserId: ctx.userId },
