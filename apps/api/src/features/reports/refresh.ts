@@ -15,7 +15,7 @@ import * as repo from './repository';
  * transaction committed just after it is still found. Kept short, because every refresh in that window
  * recomputes the days it names; the daily sweep looks back two days for anything later still.
  */
-const OVERLAP_MS = 10_000;
+export const OVERLAP_MS = 10_000;
 
 export interface RefreshResult {
   days: number;

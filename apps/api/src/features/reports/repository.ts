@@ -217,18 +217,23 @@ export type WorkGrouping = 'all' | 'station' | 'technician' | 'day';
 
 /**
  * Work summed by one grouping, in the database, so a long period never brings its day rows over the wire. Staffed
- * hours are the distinct (day, hour, technician) with a pair, summed from the rows the refresh marked.
+ * hours are the distinct (day, hour, technician) with a pair, summed from the rows the refresh marked: within one
+ * station an hour counts per technician there (`staffedHours` of a station row), across stations once per
+ * technician (`staffedAcross`, whose sum over the station rows is the period's). The day grouping also sums the
+ * pairs of each local hour, for the weekday-and-hour heat map.
  */
 export async function workBy(s: Scope, f: SummaryFilter, by: WorkGrouping) {
   const w = reportWorkDay;
   const keys: Record<string, AnyMySqlColumn> = { all: {}, station: { stationId: w.stationId }, technician: { technicianId: w.technicianId }, day: { day: w.day } }[by];
   const groupBy = { all: [], station: [w.stationId], technician: [w.technicianId], day: [w.day] }[by];
+  const hours = by === 'day' ? Object.fromEntries(HOURS.map((h) => [hourKey(h), sum(w[hourKey(h)])])) : {};
   const rows = await s.findJoined(w, {
     fields: {
       ...keys,
       ...workSums,
-      // Within one station an hour counts per technician there; across stations once per technician.
       staffedHours: by === 'station' || f.stationId ? sum(w.staffedStation) : sum(w.staffedTotal),
+      staffedAcross: f.stationId ? sum(w.staffedStation) : sum(w.staffedTotal),
+      ...hours,
     },
     joins: [],
     where: workWhere(f),
@@ -241,24 +246,10 @@ export async function workBy(s: Scope, f: SummaryFilter, by: WorkGrouping) {
       technicianId: (row.technicianId as string | undefined) ?? '',
       day: (row.day as string | undefined) ?? '',
       staffedHours: n(row.staffedHours),
+      staffedAcross: n(row.staffedAcross),
+      pairsByHour: by === 'day' ? HOURS.map((h) => n(row[hourKey(h)])) : [],
       ...(Object.fromEntries(Object.keys(workSums).map((k) => [k, n(row[k])])) as WorkSums),
     };
-  });
-}
-
-/** Pairs by ISO weekday (1 = Monday) and local hour, for the heat map: only the weekdays and hours that had any. */
-export async function pairsByWeekdayHour(s: Scope, f: SummaryFilter) {
-  const w = reportWorkDay;
-  const weekday = sql<number>`weekday(${w.day}) + 1`.mapWith(Number);
-  const rows = await s.findJoined(w, {
-    fields: { weekday, ...Object.fromEntries(HOURS.map((h) => [hourKey(h), sum(w[hourKey(h)])])) },
-    joins: [],
-    where: workWhere(f),
-    groupBy: [sql`weekday(${w.day})`],
-  });
-  return rows.flatMap((r) => {
-    const row = r as Record<string, unknown>;
-    return HOURS.map((hour) => ({ weekday: n(row.weekday), hour, pairs: n(row[hourKey(hour)]) })).filter((x) => x.pairs > 0);
   });
 }
 

@@ -41,65 +41,80 @@ function histogramPercentile(buckets: { bucket: number; tickets: number }[], p: 
   return null;
 }
 
-async function throughputTotals(s: Scope, period: Period, filters: Filters) {
-  const f = { from: period.from, to: period.to, stationId: filters.stationId, technicianId: filters.technicianId };
-  const [[work], turnaround] = await Promise.all([repo.workBy(s, f, 'all'), repo.turnaroundRows(s, f)]);
-  const pairs = work?.pairs ?? 0;
-  const hours = work?.staffedHours ?? 0;
+/** The period's figures from its work (pairs, staffed hours) and its tickets made ready, by turnaround bucket. */
+function throughputTotals(work: { pairs: number; staffedAcross: number }, turnaround: { bucket: number; tickets: number; onTime: number }[]) {
+  const { pairs, staffedAcross: hours } = work;
   const ready = turnaround.reduce((n, r) => n + r.tickets, 0);
   const onTime = turnaround.reduce((n, r) => n + r.onTime, 0);
   const byBucket = new Map<number, number>();
   for (const r of turnaround) byBucket.set(r.bucket, (byBucket.get(r.bucket) ?? 0) + r.tickets);
   const buckets = [...byBucket].map(([bucket, tickets]) => ({ bucket, tickets }));
   return {
-    turnaround,
-    totals: {
-      pairs,
-      staffedHours: hours,
-      pairsPerStaffedHour: round2(ratio(pairs, hours)),
-      ticketsReady: ready,
-      medianTurnaroundMinutes: histogramPercentile(buckets, 0.5),
-      p90TurnaroundMinutes: histogramPercentile(buckets, 0.9),
-      promisedHitRate: ratio(onTime, ready),
-    },
+    pairs,
+    staffedHours: hours,
+    pairsPerStaffedHour: round2(ratio(pairs, hours)),
+    ticketsReady: ready,
+    medianTurnaroundMinutes: histogramPercentile(buckets, 0.5),
+    p90TurnaroundMinutes: histogramPercentile(buckets, 0.9),
+    promisedHitRate: ratio(onTime, ready),
   };
 }
+
+async function comparedThroughput(s: Scope, period: Period, filters: Filters) {
+  const f = { from: period.from, to: period.to, stationId: filters.stationId, technicianId: filters.technicianId };
+  const [[work], turnaround] = await Promise.all([repo.workBy(s, f, 'all'), repo.turnaroundRows(s, f)]);
+  return throughputTotals(work ?? { pairs: 0, staffedAcross: 0 }, turnaround);
+}
+
+/** ISO weekday (1 = Monday) of a local day written YYYY-MM-DD. */
+const isoWeekday = (day: string) => ((new Date(`${day}T00:00:00Z`).getUTCDay() + 6) % 7) + 1;
 
 const perHour = (r: { pairs: number; staffedHours: number }) => ({ pairs: r.pairs, staffedHours: r.staffedHours, pairsPerStaffedHour: round2(ratio(r.pairs, r.staffedHours)) });
 
 export async function throughput(s: Scope, q: ReportQuery): Promise<ThroughputReport> {
   const f = { from: q.from, to: q.to, stationId: q.stationId, technicianId: q.technicianId };
-  const [current, compare, stations, people, byStation, byTechnician, byDay, byHour] = await Promise.all([
-    throughputTotals(s, q, q),
-    q.compareFrom && q.compareTo ? throughputTotals(s, { from: q.compareFrom, to: q.compareTo }, q) : null,
+  // Three groupings of the day rows: the period's totals are the stations' sums, the heat map the days'.
+  const [turnaround, compare, stations, people, byStation, byTechnician, byDay] = await Promise.all([
+    repo.turnaroundRows(s, f),
+    q.compareFrom && q.compareTo ? comparedThroughput(s, { from: q.compareFrom, to: q.compareTo }, q) : null,
     repo.stationsOf(s),
     repo.techniciansOf(s),
     repo.workBy(s, f, 'station'),
     repo.workBy(s, f, 'technician'),
     repo.workBy(s, f, 'day'),
-    repo.pairsByWeekdayHour(s, f),
   ]);
+  const totals = throughputTotals({ pairs: byStation.reduce((n, r) => n + r.pairs, 0), staffedAcross: byStation.reduce((n, r) => n + r.staffedAcross, 0) }, turnaround);
   const stationName = new Map(stations.map((st) => [st.id, st.name]));
   const personName = new Map(people.map((p) => [p.id, p.name]));
   const days = new Map<string, { pairs: number; ticketsReady: number; onTime: number }>();
   for (let d = q.from; d <= q.to; d = nextDay(d)) days.set(d, { pairs: 0, ticketsReady: 0, onTime: 0 });
-  for (const r of byDay) days.get(r.day)!.pairs += r.pairs;
-  for (const r of current.turnaround) {
+  const heat = new Map<string, { weekday: number; hour: number; pairs: number }>();
+  for (const r of byDay) {
+    days.get(r.day)!.pairs += r.pairs;
+    const weekday = isoWeekday(r.day);
+    r.pairsByHour.forEach((pairs, hour) => {
+      if (pairs === 0) return;
+      const cell = heat.get(`${weekday}|${hour}`) ?? { weekday, hour, pairs: 0 };
+      cell.pairs += pairs;
+      heat.set(`${weekday}|${hour}`, cell);
+    });
+  }
+  for (const r of turnaround) {
     const day = days.get(r.day)!;
     day.ticketsReady += r.tickets;
     day.onTime += r.onTime;
   }
   return {
     period: { from: q.from, to: q.to },
-    totals: current.totals,
-    compare: compare && q.compareFrom && q.compareTo ? { period: { from: q.compareFrom, to: q.compareTo }, totals: compare.totals } : null,
+    totals,
+    compare: compare && q.compareFrom && q.compareTo ? { period: { from: q.compareFrom, to: q.compareTo }, totals: compare } : null,
     tables: {
       byDay: [...days].map(([day, v]) => ({ day, ...v })),
       byStation: byStation.map((r) => ({ stationId: r.stationId, station: stationName.get(r.stationId) ?? 'Removed station', ...perHour(r) })).sort((a, b) => a.station.localeCompare(b.station)),
       byTechnician: byTechnician
         .map((r) => ({ technicianId: r.technicianId, technician: personName.get(r.technicianId) ?? 'Former staff', ...perHour(r) }))
         .sort((a, b) => a.technician.localeCompare(b.technician)),
-      byHour: byHour.sort((a, b) => a.weekday - b.weekday || a.hour - b.hour),
+      byHour: [...heat.values()].sort((a, b) => a.weekday - b.weekday || a.hour - b.hour),
     },
   };
 }
