@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { levelReading, scoped, ticket, wheel, wheelEvent } from '@rinkwright/db';
+import { levelingAdjustment, levelReading, scoped, ticket, wheel, wheelEvent } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { createSharpening, createStation, createTicket } from '@rinkwright/db/testing';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -52,6 +52,11 @@ beforeAll(async () => {
   await createSharpening(db, desk.world.id, { ticketId: b.id, pairId: b.pairIds[0]!, stationId: stationB.id, technicianId: t2, passes: 3, readingsNm: [20_000, -30_000], doneAt: local('2026-11-02T14:05:00') });
   await createSharpening(db, desk.world.id, { ticketId: c.id, pairId: c.pairIds[0]!, stationId: stationB.id, technicianId: t1, passes: 4, readingsNm: [10_000, 10_000], doneAt: local('2026-11-03T23:30:00') });
   await createSharpening(db, desk.world.id, { ticketId: d.id, pairId: d.pairIds[0]!, stationId: desk.station.id, wheelId, technicianId: t1, passes: 4, readingsNm: [0, 0], doneAt: local('2026-10-31T10:10:00') });
+  // A leveling adjustment on each station, between its pairs.
+  await db.insert(levelingAdjustment).values([
+    { id: crypto.randomUUID(), tenantId: desk.world.id, stationId: desk.station.id, amountMilli: 250, note: null, at: local('2026-11-02T09:30:00'), byUserId: t2 },
+    { id: crypto.randomUUID(), tenantId: desk.world.id, stationId: stationB.id, amountMilli: -500, note: null, at: local('2026-11-03T12:00:00'), byUserId: t2 },
+  ]);
   // The off right blade of the second pair is run again: one re-run.
   await db.insert(levelReading).values({ id: crypto.randomUUID(), tenantId: desk.world.id, stationId: desk.station.id, sharpeningId: rerun.id, kind: 'sharpening', blade: 'right', attempt: 2, readingNm: 5_000, takenAt: local('2026-11-02T09:42:00'), takenBy: t1 });
 });
@@ -116,6 +121,17 @@ describe('quality', () => {
     const one = res.body.tables.byStation.find((r: { stationId: string }) => r.stationId === desk.station.id);
     // Station One: 0 and −12,700 true, 38,100 fair, 63,500 off; mean (0 + 38,100 + 12,700 + 63,500) / 4 = 28,575.
     expect(one).toMatchObject({ firstReadings: 4, trueShare: 0.5, fairShare: 0.25, offShare: 0.25, reRunRate: 0.25, meanAbsReadingNm: 28_575 });
+  });
+
+  it('shows each leveling adjustment with the mean first reading before and after it', async () => {
+    const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/quality?${period}`);
+    // Station One at 9:30 on the 2nd: before it the first readings 0 and 38,100 (9:10) and 0 and 0 (31 October),
+    // mean 9,525; after it −12,700 and 63,500 (9:40; the re-run at 9:42 is no first reading), mean 25,400.
+    // Station Two at noon on the 3rd: before 20,000 and −30,000, mean −5,000; after 10,000 and 10,000.
+    expect(res.body.tables.leveling.map((a: { station: string; amountMilli: number; meanBeforeNm: number; meanAfterNm: number }) => [a.station, a.amountMilli, a.meanBeforeNm, a.meanAfterNm])).toEqual([
+      ['Station One', 250, 9525, 25_400],
+      ['Station Two', -500, -5000, 10_000],
+    ]);
   });
 
   it('gives a wheel its pairs and passes since mounting, and the passes its dressings predict', async () => {

@@ -24,8 +24,6 @@ export interface RefreshResult {
 
 /** Brings the rink's summaries up to now. `full` recomputes every day the rink has data for. */
 export async function refreshReports(tenantId: string, options: { full?: boolean; since?: Date } = {}): Promise<RefreshResult> {
-  const settings = await readDeskSettings(tenantId);
-  const drift = (values: number[]) => driftAlertOf(values, settings);
   return scoped(tenantId).transaction(async (s) => {
     const through = await repo.lockWatermark(s);
     // Taken after the lock: everything written before this moment is in the summaries when the refresh ends.
@@ -44,10 +42,15 @@ export async function refreshReports(tenantId: string, options: { full?: boolean
       const changed = await repo.changedInstants(s, since);
       runs = consecutiveRuns(changed.map((d) => clock.of(d).day));
     }
-    const stations = new Map((await repo.stationsOf(s)).map((st) => [st.id, bandsFor({ rink: settings, station: st, precision: st.precision })]));
     let days = 0;
-    const bandsOf = (stationId: string) => stations.get(stationId) ?? bandsFor({ rink: settings, station: null, precision: false });
-    for (const run of runs) days += await rebuildDays(s, clock, run, bandsOf, drift);
+    // Nothing new (most refreshes): the settings and stations a rebuild needs are not even read.
+    if (runs.length > 0) {
+      const settings = await readDeskSettings(tenantId);
+      const drift = (values: number[]) => driftAlertOf(values, settings);
+      const stations = new Map((await repo.stationsOf(s)).map((st) => [st.id, bandsFor({ rink: settings, station: st, precision: st.precision })]));
+      const bandsOf = (stationId: string) => stations.get(stationId) ?? bandsFor({ rink: settings, station: null, precision: false });
+      for (const run of runs) days += await rebuildDays(s, clock, run, bandsOf, drift);
+    }
     // A full rebuild also clears summaries of days that no longer have any data.
     if (full) await repo.clearOutside(s, runs[0] ?? null);
     await repo.saveWatermark(s, now);
