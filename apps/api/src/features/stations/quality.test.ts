@@ -1,21 +1,10 @@
-import type { DeskSettings } from '@rinkwright/core';
 import { describe, expect, it } from 'vitest';
+import { DEFAULT_DESK_SETTINGS } from '../../lib/desk-settings';
 import { assessStation, type StationHistory } from './quality';
 
 // The effect of each leveling adjustment, read off the readings around it: the mean of the last five first
 // readings before it against the mean of up to five after it, those after stopping at the next adjustment. The
 // expected means are worked by hand below.
-
-const settings: DeskSettings = {
-  trueNm: 25_400,
-  fairNm: 50_800,
-  precisionTrueNm: 12_700,
-  precisionFairNm: 25_400,
-  defaultResponseNmPerTurn: 25_400,
-  defaultMinutesPerPair: 8,
-  ewmaLambdaMilli: 200,
-  ewmaKMilli: 3000,
-};
 
 const station: StationHistory['station'] = {
   id: 'st-1',
@@ -41,7 +30,7 @@ describe('the effect of leveling adjustments', () => {
     readings.splice(7, 0, { takenAt: hour(7.2), readingNm: 999_000, kind: 'sharpening', attempt: 2 });
     const detail = assessStation({
       station,
-      settings,
+      settings: DEFAULT_DESK_SETTINGS,
       readings,
       // The second adjustment falls exactly on the 8:00 reading, which is then neither before nor after it.
       adjustments: [
@@ -62,7 +51,7 @@ describe('the effect of leveling adjustments', () => {
   it('has no before or after where there are no readings on that side', () => {
     const detail = assessStation({
       station,
-      settings,
+      settings: DEFAULT_DESK_SETTINGS,
       readings: [{ takenAt: hour(2), readingNm: 3000, kind: 'check', attempt: 1 }],
       adjustments: [{ at: hour(1), amountMilli: 250, note: 'first', by: 'Tech' }],
       wheelEvents: [],
