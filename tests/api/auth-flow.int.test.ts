@@ -97,6 +97,8 @@ describe('password reset', () => {
     const newPassword = 'fresh-hollow-67890';
     await signUpVerified(email, oldPassword);
     const before = await api.signIn(email, oldPassword);
+    // Verified once here, so the process remembers it (session-memo.ts) — and must forget it with the copy.
+    expect((await before.get('/api/me')).status).toBe(200);
 
     const asked = await api.client().post('/api/auth/request-password-reset').send({ email, redirectTo: '/reset-password' });
     expect(asked.status).toBe(200);

@@ -1,6 +1,5 @@
 import { and, asc, eq, isNull, sql } from 'drizzle-orm';
-import { currentDb } from './client';
-import { isDuplicateKey } from './client';
+import { currentDb, isDuplicateKey, type Database } from './client';
 import { customer, invitation, jobRun, member, rink, rinkBilling, user } from './schema/index';
 
 // The few reads that are not inside one rink by nature: they start from the signed-in user (which rinks am
@@ -12,7 +11,32 @@ import { customer, invitation, jobRun, member, rink, rinkBilling, user } from '.
  * suspended it) and, given a user, that user's membership there, in one read: every rink request needs all three.
  */
 export async function findRinkBySlug(slug: string, userId?: string) {
-  const rows = await currentDb()
+  // Without a user, an id no member has: the membership join matches nothing and the statement stays the same.
+  const rows = await rinkBySlugQuery(currentDb()).execute({ slug, userId: userId ?? '' });
+  const row = rows[0];
+  return (
+    row && {
+      ...row.rink,
+      standing: { planState: row.planState, graceUntil: row.graceUntil, suspendedAt: row.suspendedAt, suspendedReason: row.suspendedReason },
+      membership: row.memberId && row.memberRole ? { id: row.memberId, role: row.memberRole } : null,
+    }
+  );
+}
+
+/**
+ * Every rink request starts with this read, so its statement is built once per pool (Drizzle's prepared query,
+ * with placeholders) instead of once per request, which cost about a quarter of a millisecond each time.
+ */
+const rinkBySlugQueries = new WeakMap<Database, ReturnType<typeof buildRinkBySlug>>();
+
+function rinkBySlugQuery(db: Database) {
+  let query = rinkBySlugQueries.get(db);
+  if (!query) rinkBySlugQueries.set(db, (query = buildRinkBySlug(db)));
+  return query;
+}
+
+function buildRinkBySlug(db: Database) {
+  return db
     .select({
       rink,
       planState: rinkBilling.planState,
@@ -24,18 +48,10 @@ export async function findRinkBySlug(slug: string, userId?: string) {
     })
     .from(rink)
     .leftJoin(rinkBilling, eq(rinkBilling.tenantId, rink.id))
-    // A join that matches nothing without a user keeps this one statement for the public page and the staff.
-    .leftJoin(member, and(eq(member.organizationId, rink.id), userId ? eq(member.userId, userId) : sql`false`))
-    .where(eq(rink.slug, slug))
-    .limit(1);
-  const row = rows[0];
-  return (
-    row && {
-      ...row.rink,
-      standing: { planState: row.planState, graceUntil: row.graceUntil, suspendedAt: row.suspendedAt, suspendedReason: row.suspendedReason },
-      membership: row.memberId && row.memberRole ? { id: row.memberId, role: row.memberRole } : null,
-    }
-  );
+    .leftJoin(member, and(eq(member.organizationId, rink.id), eq(member.userId, sql.placeholder('userId'))))
+    .where(eq(rink.slug, sql.placeholder('slug')))
+    .limit(1)
+    .prepare();
 }
 
 export async function listMembershipsOfUser(userId: string) {

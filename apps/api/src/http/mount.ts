@@ -3,7 +3,7 @@ import { graceLapsed } from '@rinkwright/core';
 import type { z } from 'zod';
 import type { Auth } from '../auth';
 import { roleAllows } from '../access';
-import { findCaller, requireCaller, resolveRink } from '../middleware/context';
+import { callersOf, findCaller, requireCaller, resolveRink, type Callers } from '../middleware/context';
 import { AppError, fieldsOf } from './errors';
 import { idempotencyKeyOf, once, requestHash, type StoredAnswer } from '../middleware/idempotency';
 import type { RinkContext, Route } from './route';
@@ -18,19 +18,19 @@ function parsePart(schema: z.ZodType | undefined, value: unknown, part: 'params'
   return parsed.data;
 }
 
-async function contextFor(route: Route, auth: Auth, req: Request, res: Response): Promise<unknown> {
+async function contextFor(route: Route, callers: Callers, req: Request, res: Response): Promise<unknown> {
   switch (route.access) {
     case 'public':
-      return { user: await findCaller(auth, req, res) };
+      return { user: await findCaller(callers, req, res) };
     case 'user':
-      return requireCaller(auth, req, res);
+      return requireCaller(callers, req, res);
     case 'platform': {
-      const caller = await requireCaller(auth, req, res);
+      const caller = await requireCaller(callers, req, res);
       if (!caller.platformAdmin) throw AppError.notFound('No such page');
       return caller;
     }
     case 'rink': {
-      const caller = await requireCaller(auth, req, res);
+      const caller = await requireCaller(callers, req, res);
       const { ctx, standing } = await resolveRink(caller, String(req.params.rinkSlug));
       if (route.permission && !roleAllows(ctx.role, route.permission)) {
         throw new AppError('forbidden', 'Your role at this rink does not allow this');
@@ -51,9 +51,10 @@ async function contextFor(route: Route, auth: Auth, req: Request, res: Response)
 
 /** Mounts the route table: context (sign-in, tenant, role) first, then validation, handler, response shape. */
 export function mountRoutes(app: Express, routes: Route[], auth: Auth): void {
+  const callers = callersOf(auth);
   for (const route of routes) {
     app[route.method](route.path, async (req, res) => {
-      const ctx = await contextFor(route, auth, req, res);
+      const ctx = await contextFor(route, callers, req, res);
       const keyed = route.idempotent === true || (route.idempotent === 'optional' && req.get('idempotency-key') !== undefined);
       if (keyed) idempotencyKeyOf(req);
       const params = parsePart(route.params, req.params, 'params');

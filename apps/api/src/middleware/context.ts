@@ -2,24 +2,42 @@ import type { Request, Response } from 'express';
 import { fromNodeHeaders } from 'better-auth/node';
 import { directory } from '@rinkwright/db';
 import { STAFF_ROLES, type StaffRole } from '@rinkwright/core';
+import { getCookies } from 'better-auth/cookies';
 import type { Auth } from '../auth';
+import { SessionMemo } from './session-memo';
 import { AppError } from '../http/errors';
 import type { RinkContext, UserContext } from '../http/route';
+
+/** How the API knows who is calling: better-auth, and what this process already verified (session-memo.ts). */
+export interface Callers {
+  auth: Auth;
+  memo: SessionMemo;
+}
+
+export function callersOf(auth: Auth): Callers {
+  return { auth, memo: new SessionMemo(getCookies(auth.options).sessionData.name) };
+}
 
 /**
  * The signed-in user. The session is read from its signed cache cookie while that is fresh (auth.ts), else from
  * the database; whatever cookies better-auth renews on the way are passed on to the browser.
  */
-export async function findCaller(auth: Auth, req: Request, res: Response): Promise<UserContext | null> {
+export async function findCaller({ auth, memo }: Callers, req: Request, res: Response): Promise<UserContext | null> {
+  const cookieHeader = req.headers.cookie;
+  const known = memo.recall(cookieHeader);
+  if (known) return known;
   const { headers, response: found } = await auth.api.getSession({ headers: fromNodeHeaders(req.headers), returnHeaders: true });
-  for (const cookie of headers.getSetCookie()) res.append('Set-Cookie', cookie);
+  const renewed = headers.getSetCookie();
+  for (const cookie of renewed) res.append('Set-Cookie', cookie);
   if (!found) return null;
   const { user } = found;
-  return { userId: user.id, email: user.email, name: user.name, platformAdmin: user.role === 'admin' };
+  const caller = { userId: user.id, email: user.email, name: user.name, platformAdmin: user.role === 'admin' };
+  if (renewed.length === 0) memo.remember(cookieHeader, caller);
+  return caller;
 }
 
-export async function requireCaller(auth: Auth, req: Request, res: Response): Promise<UserContext> {
-  const caller = await findCaller(auth, req, res);
+export async function requireCaller(callers: Callers, req: Request, res: Response): Promise<UserContext> {
+  const caller = await findCaller(callers, req, res);
   if (!caller) throw new AppError('unauthenticated', 'Sign in to continue');
   return caller;
 }
