@@ -128,9 +128,12 @@ describe('the bench data set, small', () => {
 
   it('is summed by the report refresh to the same pairs, first readings and re-runs', async () => {
     await refreshReports(seeded.large.id, { full: true });
-    const [summary] = await rows('SELECT SUM(pairs) AS pairs, SUM(first_readings) AS first, SUM(reruns) AS reruns FROM report_work_day WHERE tenant_id = ?', [seeded.large.id]);
     const reruns = await count('SELECT COUNT(*) AS n FROM level_reading WHERE tenant_id = ? AND attempt = 2', [seeded.large.id]);
-    expect({ pairs: Number(summary?.pairs), first: Number(summary?.first), reruns: Number(summary?.reruns) }).toEqual({ pairs: 600, first: 1_200, reruns });
+    // The rows themselves, and each of their three rollups ('*': every station, every technician), sum the same.
+    for (const grain of ["station_id <> '*' AND technician_id <> '*'", "station_id <> '*' AND technician_id = '*'", "station_id = '*' AND technician_id <> '*'", "station_id = '*' AND technician_id = '*'"]) {
+      const [summary] = await rows(`SELECT SUM(pairs) AS pairs, SUM(first_readings) AS first, SUM(reruns) AS reruns FROM report_work_day WHERE tenant_id = ? AND ${grain}`, [seeded.large.id]);
+      expect({ grain, pairs: Number(summary?.pairs), first: Number(summary?.first), reruns: Number(summary?.reruns) }).toEqual({ grain, pairs: 600, first: 1_200, reruns });
+    }
     const ready = await count('SELECT COUNT(*) AS n FROM ticket WHERE tenant_id = ? AND ready_at IS NOT NULL', [seeded.large.id]);
     expect(await count('SELECT COALESCE(SUM(tickets), 0) AS n FROM report_turnaround WHERE tenant_id = ?', [seeded.large.id])).toBe(ready);
   }, 60_000);

@@ -5,12 +5,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { promisify } from 'node:util';
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import mysql from 'mysql2/promise';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { QualityReport, ThroughputReport } from '@rinkwright/core';
-import { connectReportsDb, reportWorkDay } from '@rinkwright/db';
+import { connectReportsDb, reportWorkDay, ROLLUP_KEY } from '@rinkwright/db';
 import { createService, createSharpening, createStation, createTicket } from '@rinkwright/db/testing';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { createApp, type AppBundle } from '../../apps/api/src/app';
@@ -117,9 +117,13 @@ describe('reports from a MariaDB replica', () => {
     return response.body as QualityReport;
   }
 
-  /** Pairs in the primary's own summary rows: what a report reading the primary would count. */
+  /** Pairs in the primary's own summary rows (each day's rollup row): what a report reading the primary would count. */
   async function primaryPairs(): Promise<number> {
-    const rows = await currentDb().select({ pairs: reportWorkDay.pairs }).from(reportWorkDay).where(eq(reportWorkDay.tenantId, rink.id));
+    const w = reportWorkDay;
+    const rows = await currentDb()
+      .select({ pairs: w.pairs })
+      .from(w)
+      .where(and(eq(w.tenantId, rink.id), eq(w.stationId, ROLLUP_KEY), eq(w.technicianId, ROLLUP_KEY)));
     return rows.reduce((sum, row) => sum + row.pairs, 0);
   }
 

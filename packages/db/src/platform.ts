@@ -1,6 +1,6 @@
 import { desc, eq, sql } from 'drizzle-orm';
 import { currentDb } from './client';
-import { customer, member, reportMoneyDay, reportWorkDay, rink, rinkBilling, station } from './schema/index';
+import { customer, member, reportMoneyDay, reportWorkDay, rink, rinkBilling, ROLLUP_KEY, station } from './schema/index';
 
 // Reads across every rink, for the platform admin only (the route table gates them with access 'platform').
 export async function listRinksWithCounts() {
@@ -22,8 +22,8 @@ export async function listRinksWithCounts() {
       planGraceUntil: rinkBilling.planGraceUntil,
       suspendedAt: rinkBilling.suspendedAt,
       suspendedReason: rinkBilling.suspendedReason,
-      // From the report summaries: pairs and platform fees of the last 30 days.
-      pairs30d: sql<number>`(select coalesce(sum(${reportWorkDay.pairs}), 0) from ${reportWorkDay} where ${reportWorkDay.tenantId} = ${rink.id} and ${reportWorkDay.day} >= ${since})`.mapWith(Number),
+      // From the report summaries: pairs (each day's rollup row) and platform fees of the last 30 days.
+      pairs30d: sql<number>`(select coalesce(sum(${reportWorkDay.pairs}), 0) from ${reportWorkDay} where ${reportWorkDay.tenantId} = ${rink.id} and ${reportWorkDay.day} >= ${since} and ${reportWorkDay.stationId} = ${ROLLUP_KEY} and ${reportWorkDay.technicianId} = ${ROLLUP_KEY})`.mapWith(Number),
       feesMinor30d: sql<number>`(select coalesce(sum(${reportMoneyDay.feesMinor}), 0) from ${reportMoneyDay} where ${reportMoneyDay.tenantId} = ${rink.id} and ${reportMoneyDay.day} >= ${since})`.mapWith(Number),
     })
     .from(rink)

@@ -1,4 +1,4 @@
-import { bigint, customType, date, int, mysqlTable, primaryKey, smallint, varchar } from 'drizzle-orm/mysql-core';
+import { bigint, customType, date, index, int, mysqlTable, primaryKey, smallint, varchar } from 'drizzle-orm/mysql-core';
 import { at, rinkFk, tenantId } from './columns';
 
 // Summary tables the reports read instead of the raw rows. Each is keyed by the rink's local day (its time
@@ -16,8 +16,18 @@ export const HOURS = Array.from({ length: 24 }, (_, h) => h);
 const hourColumns = () => Object.fromEntries(HOURS.map((h) => [hourKey(h), int(`pairs_h${String(h).padStart(2, '0')}`).notNull().default(0)])) as Record<`pairsH${Hour}`, ReturnType<typeof int>>;
 
 /**
+ * The station or technician of a rollup row of `report_work_day`: the sum of that day's rows over every station
+ * (technician). Each day has its rows (day, station, technician), and their rollups (day, station, ROLLUP_KEY),
+ * (day, ROLLUP_KEY, technician) and (day, ROLLUP_KEY, ROLLUP_KEY), so a report reads the rows of the grain it shows
+ * and nothing finer: 90 days of one rink's stations are 90 × stations rows, not 90 × stations × technicians.
+ * Every column is a sum, so a rollup is exactly the sum of its rows.
+ */
+export const ROLLUP_KEY = '*';
+
+/**
  * Pairs and their first readings, per local day, station and technician, with the pairs of each local hour for the
- * weekday-and-hour heat map. A day row rather than an hour row: a 90-day report groups a quarter as many rows.
+ * weekday-and-hour heat map, and the rollups of those rows (ROLLUP_KEY). A day row rather than an hour row: a 90-day
+ * report groups a quarter as many rows.
  */
 export const reportWorkDay = mysqlTable(
   'report_work_day',
@@ -44,7 +54,14 @@ export const reportWorkDay = mysqlTable(
     staffedStation: int('staffed_station').notNull(),
     ...hourColumns(),
   },
-  (t) => [primaryKey({ name: 'report_work_day_pk', columns: [t.tenantId, t.day, t.stationId, t.technicianId] }), rinkFk('report_work_day_rink_fk', t.tenantId)],
+  (t) => [
+    primaryKey({ name: 'report_work_day_pk', columns: [t.tenantId, t.day, t.stationId, t.technicianId] }),
+    rinkFk('report_work_day_rink_fk', t.tenantId),
+    // A grain's rows by index range: a station (or every station's rollup, '*') over the days, then technicians;
+    // and a technician (or '*') over the days, then stations.
+    index('report_work_day_station_idx').on(t.tenantId, t.stationId, t.day, t.technicianId),
+    index('report_work_day_technician_idx').on(t.tenantId, t.technicianId, t.day, t.stationId),
+  ],
 );
 
 /** Pairs and passes over each wheel per local day, for the wheel's life, which spans more than any report period. */

@@ -10,8 +10,17 @@ export interface LocalClock {
   startOf(day: string): Date;
 }
 
+// Making a formatter loads the zone's rules (about a millisecond); a rink's zone is asked for on every report.
+const formats = new Map<string, Intl.DateTimeFormat>();
+
+function formatOf(zone: string): Intl.DateTimeFormat {
+  let format = formats.get(zone);
+  if (!format) formats.set(zone, (format = new Intl.DateTimeFormat('en-CA', { timeZone: zone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', hourCycle: 'h23' })));
+  return format;
+}
+
 export function localClock(zone: string): LocalClock {
-  const format = new Intl.DateTimeFormat('en-CA', { timeZone: zone, year: 'numeric', month: '2-digit', day: '2-digit', hour: '2-digit', hourCycle: 'h23' });
+  const format = formatOf(zone);
   return {
     of(at) {
       const parts: Record<string, string> = {};
@@ -24,7 +33,8 @@ export function localClock(zone: string): LocalClock {
   };
 }
 
-export const nextDay = (day: string) => DateTime.fromISO(day, { zone: 'UTC' }).plus({ days: 1 }).toISODate()!;
+/** The calendar day after a YYYY-MM-DD day (a calendar has no zone: counted in UTC, where every day is 24 hours). */
+export const nextDay = (day: string) => new Date(Date.parse(`${day}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10);
 
 /** Sorted days grouped into runs of consecutive days. */
 export function consecutiveRuns(days: Iterable<string>): { first: string; last: string }[] {

@@ -4,6 +4,7 @@ import { readDeskSettings } from '../../lib/desk-settings';
 import { driftAlertOf, DRIFT_WINDOW } from '../../lib/drift';
 import { consecutiveRuns, localClock, nextDay, type LocalClock } from './local-time';
 import * as repo from './repository';
+import { withRollups } from './rollup';
 
 // Keeps a rink's summary tables current. Rows written since the rink's watermark name the local days they
 // belong to (a sharpening's day, a ticket's ready day, a payment's paid day, an entry's day); each such day is
@@ -173,7 +174,7 @@ async function rebuildDays(s: Scope, clock: LocalClock, run: { first: string; la
   const driftDays: repo.DriftDayRow[] = [];
   for (const stationId of await repo.stationsWithSeriesIn(s, range)) driftDays.push(...(await driftTransitions(s, clock, stationId, range, drift)));
 
-  await repo.replaceDays(s, run, { work: [...work.values()], wheels: [...wheels.values()], turnaround: [...turnaround.values()], money: [...money.values()], credit: [...credit.values()], drift: driftDays });
+  await repo.replaceDays(s, run, { work: withRollups([...work.values()]), wheels: [...wheels.values()], turnaround: [...turnaround.values()], money: [...money.values()], credit: [...credit.values()], drift: driftDays });
   return Math.round((range.end.getTime() - range.start.getTime()) / 86_400_000);
 }
 

@@ -1,4 +1,4 @@
-import { and, asc, eq, gte, inArray, isNotNull, isNull, lt, max, min, sql, sum, type SQL } from 'drizzle-orm';
+import { and, asc, eq, gte, inArray, isNotNull, isNull, lt, max, min, ne, sql, sum, type SQL } from 'drizzle-orm';
 import type { AnyMySqlColumn } from 'drizzle-orm/mysql-core';
 import {
   creditAccount,
@@ -21,6 +21,7 @@ import {
   reportWheelDay,
   reportWorkDay,
   HOURS,
+  ROLLUP_KEY,
   hourKey,
   sharpening,
   station,
@@ -199,8 +200,15 @@ export interface SummaryFilter {
 }
 
 const dayIn = (column: AnyMySqlColumn, f: SummaryFilter) => sql`${column} >= ${f.from} and ${column} <= ${f.to}`;
-const workWhere = (f: SummaryFilter) =>
-  and(dayIn(reportWorkDay.day, f), f.stationId ? eq(reportWorkDay.stationId, f.stationId) : undefined, f.technicianId ? eq(reportWorkDay.technicianId, f.technicianId) : undefined);
+/**
+ * The day rows of a grouping's grain (schema/reports.ts, ROLLUP_KEY): a station (technician) named by the filter, else
+ * every station's (technician's) own rows when grouping by it, else their rollup.
+ */
+const workWhere = (f: SummaryFilter, by: WorkGrouping) => {
+  const w = reportWorkDay;
+  const grain = (column: AnyMySqlColumn, named: string | undefined, grouped: boolean) => (named ? eq(column, named) : grouped ? ne(column, ROLLUP_KEY) : eq(column, ROLLUP_KEY));
+  return and(dayIn(w.day, f), grain(w.stationId, f.stationId, by === 'station'), grain(w.technicianId, f.technicianId, by === 'technician'));
+};
 
 const workSums = {
   pairs: sum(reportWorkDay.pairs),
@@ -236,7 +244,7 @@ export async function workBy(s: Scope, f: SummaryFilter, by: WorkGrouping) {
       ...hours,
     },
     joins: [],
-    where: workWhere(f),
+    where: workWhere(f, by),
     groupBy,
   });
   return rows.map((r) => {
@@ -366,8 +374,16 @@ export const firstReadingsAround = (s: Scope, stationId: string, at: Date, side:
 export const wheelsIn = (s: Scope, r: Range) =>
   s.find(wheel, { where: and(lt(wheel.mountedAt, r.end), sql`(${wheel.removedAt} is null or ${wheel.removedAt} >= ${r.start})`), orderBy: asc(wheel.mountedAt) });
 
-export const wheelEventsOf = (s: Scope, wheelIds: string[]) =>
-  wheelIds.length === 0 ? Promise.resolve([]) : s.find(wheelEvent, { where: inArray(wheelEvent.wheelId, wheelIds), orderBy: asc(wheelEvent.at) });
+/** The dressings of these wheels that measured the diameter, oldest first: the points of a wheel's wear. */
+export const measuredDressingsOf = (s: Scope, wheelIds: string[]) =>
+  wheelIds.length === 0
+    ? Promise.resolve([])
+    : s.findJoined(wheelEvent, {
+        fields: { wheelId: wheelEvent.wheelId, at: wheelEvent.at, diameterNm: wheelEvent.diameterNm },
+        joins: [],
+        where: and(inArray(wheelEvent.wheelId, wheelIds), eq(wheelEvent.kind, 'dressing'), isNotNull(wheelEvent.diameterNm)),
+        orderBy: asc(wheelEvent.at),
+      });
 
 /** Every membership with its product's billing interval and current price (a rink has few). */
 export const membershipsWithPrice = (s: Scope) =>

@@ -13,6 +13,7 @@ import {
 } from '@rinkwright/core';
 import { reportScope, scoped, type Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
+import { firstIndex, groupBy, runningTotals } from '../../lib/sorted';
 import type { RinkContext } from '../../http/route';
 import { localClock, nextDay } from './local-time';
 import { refreshReports } from './refresh';
@@ -145,11 +146,27 @@ const EFFECT_READINGS = 10;
 export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<QualityReport> {
   const clock = localClock(zone);
   const range = { start: clock.startOf(q.from), end: clock.startOf(nextDay(q.to)) };
-  const [work, compareWork, stations, drift] = await Promise.all([
+  // The leveling and wheel tables each read in two steps; all three tables' reads run at once.
+  const effects = repo.adjustmentsIn(s, range, q.stationId).then((adjustments) =>
+    Promise.all(
+      adjustments.map(async (a) => {
+        const [before, after] = await Promise.all([repo.firstReadingsAround(s, a.stationId, a.at, 'before', EFFECT_READINGS), repo.firstReadingsAround(s, a.stationId, a.at, 'after', EFFECT_READINGS)]);
+        return { adjustment: a, meanBeforeNm: mean(before.map((r) => r.readingNm)), meanAfterNm: mean(after.map((r) => r.readingNm)) };
+      }),
+    ),
+  );
+  const wear = repo.wheelsIn(s, range).then(async (all) => {
+    const wheels = all.filter((w) => !q.stationId || w.stationId === q.stationId);
+    const [usage, dressings] = await Promise.all([repo.wheelDays(s, wheels.map((w) => w.id)), repo.measuredDressingsOf(s, wheels.map((w) => w.id))]);
+    return { wheels, usage, dressings };
+  });
+  const [work, compareWork, stations, drift, leveled, { wheels, usage, dressings }] = await Promise.all([
     repo.workBy(s, { from: q.from, to: q.to, stationId: q.stationId, technicianId: q.technicianId }, 'station'),
     q.compareFrom && q.compareTo ? repo.workBy(s, { from: q.compareFrom, to: q.compareTo, stationId: q.stationId, technicianId: q.technicianId }, 'all') : null,
     repo.stationsOf(s),
     repo.driftRows(s, { from: q.from, to: q.to, stationId: q.stationId }),
+    effects,
+    wear,
   ]);
   const shown = stations.filter((st) => !q.stationId || st.id === q.stationId);
   const byStation = [];
@@ -159,24 +176,22 @@ export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<Q
     if (rows.length === 0 && alerts.raised === 0 && alerts.cleared === 0) continue;
     byStation.push({ stationId: st.id, station: st.name, ...qualityOf(rows), driftAlertsRaised: alerts.raised, driftAlertsCleared: alerts.cleared });
   }
-  const adjustments = await repo.adjustmentsIn(s, range, q.stationId);
-  const leveling = await Promise.all(
-    adjustments.map(async (a) => {
-      const st = stations.find((x) => x.id === a.stationId);
-      const [before, after] = await Promise.all([repo.firstReadingsAround(s, a.stationId, a.at, 'before', EFFECT_READINGS), repo.firstReadingsAround(s, a.stationId, a.at, 'after', EFFECT_READINGS)]);
-      return { stationId: a.stationId, station: st?.name ?? 'Removed station', at: a.at.toISOString(), amountMilli: a.amountMilli, unit: st?.adjustUnit ?? 'turns', meanBeforeNm: mean(before.map((r) => r.readingNm)), meanAfterNm: mean(after.map((r) => r.readingNm)) };
-    }),
-  );
-  const wheels = (await repo.wheelsIn(s, range)).filter((w) => !q.stationId || w.stationId === q.stationId);
-  const [usage, events] = await Promise.all([repo.wheelDays(s, wheels.map((w) => w.id)), repo.wheelEventsOf(s, wheels.map((w) => w.id))]);
+  const leveling = leveled.map(({ adjustment: a, meanBeforeNm, meanAfterNm }) => {
+    const st = stations.find((x) => x.id === a.stationId);
+    return { stationId: a.stationId, station: st?.name ?? 'Removed station', at: a.at.toISOString(), amountMilli: a.amountMilli, unit: st?.adjustUnit ?? 'turns', meanBeforeNm, meanAfterNm };
+  });
+  const daysOf = groupBy(usage, (u) => u.wheelId);
+  const dressingsOf = groupBy(dressings, (d) => d.wheelId);
   const wheelRows = wheels.map((w) => {
-    const days = usage.filter((u) => u.wheelId === w.id);
-    // Passes before each measured diameter, to the day: the summaries count passes per local day.
+    const days = daysOf.get(w.id) ?? [];
+    // Passes before each measured diameter, to the day (the summaries count passes per local day): the sum of the
+    // days before the dressing's own, from running totals of the days in order.
+    const through = runningTotals(days.map((d) => d.passes));
     const passesBefore = (at: Date) => {
       const day = clock.of(at).day;
-      return days.reduce((n, d) => (d.day < day ? n + d.passes : n), 0);
+      return through[firstIndex(days, (d) => d.day >= day)] ?? 0;
     };
-    const points = [{ passes: 0, diameterNm: w.diameterNewNm, at: w.mountedAt }, ...events.filter((e) => e.wheelId === w.id && e.kind === 'dressing' && e.diameterNm !== null).map((e) => ({ passes: passesBefore(e.at), diameterNm: e.diameterNm!, at: e.at }))];
+    const points = [{ passes: 0, diameterNm: w.diameterNewNm, at: w.mountedAt }, ...(dressingsOf.get(w.id) ?? []).map((e) => ({ passes: passesBefore(e.at), diameterNm: e.diameterNm!, at: e.at }))];
     const wear = wheelWear({ points, minDiameterNm: w.minDiameterNm, now: range.end });
     return {
       wheelId: w.id,
@@ -185,7 +200,7 @@ export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<Q
       mountedAt: w.mountedAt.toISOString(),
       removedAt: w.removedAt?.toISOString() ?? null,
       pairs: days.reduce((n, d) => n + d.pairs, 0),
-      passes: days.reduce((n, d) => n + d.passes, 0),
+      passes: through[days.length] ?? 0,
       predictedPasses: wear.lastPasses !== null && wear.passesLeft !== null ? wear.lastPasses + wear.passesLeft : null,
     };
   });

@@ -10,6 +10,7 @@ import {
   type StationRow,
 } from '@rinkwright/core';
 import { DRIFT_WINDOW, driftOptions } from '../../lib/drift';
+import { firstIndex } from '../../lib/sorted';
 
 // Turns a station's raw history into what its page shows: the readings in their bands, the drift watch, the
 // leveling advice from its own adjustments, and the wheel's life. Pure: the service loads, this computes.
@@ -20,18 +21,6 @@ const WINDOW = 5;
 const RECENT = 30;
 
 const average = (values: number[]) => values.reduce((sum, v) => sum + v, 0) / values.length;
-
-/** The first index of an ascending list at which `reached` holds (the list's length when it never does). */
-function firstIndex(sorted: number[], reached: (value: number) => boolean): number {
-  let lo = 0;
-  let hi = sorted.length;
-  while (lo < hi) {
-    const mid = (lo + hi) >>> 1;
-    if (reached(sorted[mid]!)) hi = mid;
-    else lo = mid + 1;
-  }
-  return lo;
-}
 
 export interface StationHistory {
   station: StationRow & { ownTrueNm: number | null; ownFairNm: number | null };

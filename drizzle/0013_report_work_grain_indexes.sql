@@ -1,0 +1,2 @@
+CREATE INDEX `report_work_day_station_idx` ON `report_work_day` (`tenant_id`,`station_id`,`day`,`technician_id`);--> statement-breakpoint
+CREATE INDEX `report_work_day_technician_idx` ON `report_work_day` (`tenant_id`,`technician_id`,`day`,`station_id`);
