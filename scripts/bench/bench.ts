@@ -151,20 +151,51 @@ async function ensureDataSet(config: BenchConfig): Promise<{ record: SeedRecord;
   }
 }
 
-async function signIn(base: string, email: string): Promise<string> {
+/**
+ * A signed-in load client's cookies, kept as a browser keeps them. better-auth renews the signed session copy once it
+ * is SESSION_CACHE_SECONDS old, and a browser sends the renewed cookie from its next request on; autocannon sends
+ * the same headers all run long. So each load run starts from a renewed copy (a run is shorter than the copy's
+ * life), and no run measures a client that ignores every Set-Cookie.
+ */
+class BrowserCookies {
+  constructor(
+    private readonly base: string,
+    private jar: Map<string, string>,
+  ) {}
+
+  get header(): string {
+    return [...this.jar].map(([name, value]) => `${name}=${value}`).join('; ');
+  }
+
+  /** The cookies after one request, with whatever the API renewed on it. */
+  async fresh(): Promise<string> {
+    const me = await fetch(`${this.base}/api/me`, { headers: { cookie: this.header } });
+    if (me.status !== 200) throw new Error(`a load client's session stopped working (GET /api/me answered ${me.status})`);
+    this.jar = withCookies(this.jar, me.headers.getSetCookie());
+    return this.header;
+  }
+}
+
+function withCookies(jar: Map<string, string>, setCookies: string[]): Map<string, string> {
+  const next = new Map(jar);
+  for (const line of setCookies) {
+    const pair = line.split(';')[0] ?? '';
+    const at = pair.indexOf('=');
+    if (at > 0) next.set(pair.slice(0, at), pair.slice(at + 1));
+  }
+  return next;
+}
+
+async function signIn(base: string, email: string): Promise<BrowserCookies> {
   const response = await fetch(`${base}/api/auth/sign-in/email`, {
     method: 'POST',
     headers: { 'content-type': 'application/json', origin: base },
     body: JSON.stringify({ email, password: PASSWORD }),
   });
   if (response.status !== 200) throw new Error(`sign-in of ${email} answered ${response.status}: ${await response.text()}`);
-  const cookie = response.headers
-    .getSetCookie()
-    .map((c) => c.split(';')[0])
-    .join('; ');
-  const me = await fetch(`${base}/api/me`, { headers: { cookie } });
-  if (me.status !== 200) throw new Error(`the session of ${email} does not work (GET /api/me answered ${me.status})`);
-  return cookie;
+  const cookies = new BrowserCookies(base, withCookies(new Map(), response.headers.getSetCookie()));
+  await cookies.fresh();
+  return cookies;
 }
 
 async function one<T extends RowDataPacket>(pool: Pool, sql: string, values: unknown[]): Promise<T> {
@@ -274,8 +305,8 @@ export async function runBench(config: BenchConfig): Promise<number> {
     health: `${bareBase}/ping`,
   });
 
-  const technicianCookie = await signIn(apiBase, large.technicianEmail);
-  const managerCookie = await signIn(apiBase, large.managerEmail);
+  const technician = await signIn(apiBase, large.technicianEmail);
+  const manager = await signIn(apiBase, large.managerEmail);
   const handle = createDbHandle(config.databaseUrl, { connectionLimit: 4 });
   const pool = handle.pool;
   try {
@@ -324,7 +355,7 @@ export async function runBench(config: BenchConfig): Promise<number> {
     const redemption: Record<'api' | 'bare', Record<number, LoadRun>> = { api: {}, bare: {} };
     for (const connections of CONNECTIONS) {
       const bare = await measure(spec(`bare redemption, ${connections} connections`, bareBase, connections, redeemRequest('bare', connections), { 'content-type': 'application/json' }));
-      const api = await measure(spec(`API redemption, ${connections} connections`, apiBase, connections, redeemRequest('api', connections), { ...apiJson, cookie: technicianCookie }));
+      const api = await measure(spec(`API redemption, ${connections} connections`, apiBase, connections, redeemRequest('api', connections), { ...apiJson, cookie: await technician.fresh() }));
       redemption.bare[connections] = bare.run;
       redemption.api[connections] = api.run;
       for (const r of [bare.run, api.run]) say(`  ${r.label}: ${fmt(r.okPerSecond)} redemptions/s, p50 ${r.latencyMs.p50} ms, p99 ${r.latencyMs.p99} ms, non-2xx ${r.non2xx}, errors ${r.errors}`);
@@ -382,7 +413,7 @@ export async function runBench(config: BenchConfig): Promise<number> {
       },
     };
     let searchIndex = 0;
-    const endpoints: { key: string; label: string; request: () => LoadSpec['request']; max: number; warmup: number; base: string; headers: Record<string, string> }[] = [
+    const endpoints: { key: string; label: string; request: () => LoadSpec['request']; max: number; warmup: number; base: string; headers: Record<string, string>; client?: BrowserCookies }[] = [
       { key: 'ping', label: 'bare Express ping', request: () => ({ method: 'GET', path: '/ping' }), max: MAX_REQUESTS, warmup: MAX_REQUESTS, base: bareBase, headers: {} },
       {
         key: 'search',
@@ -391,17 +422,19 @@ export async function runBench(config: BenchConfig): Promise<number> {
         max: MAX_REQUESTS,
         warmup: MAX_REQUESTS,
         base: apiBase,
-        headers: { origin: apiBase, cookie: technicianCookie },
+        headers: { origin: apiBase },
+        client: technician,
       },
-      { key: 'tickets', label: 'ticket list (open)', request: () => ({ method: 'GET', path: `/api/rinks/${large.slug}/tickets` }), max: MAX_REQUESTS, warmup: MAX_REQUESTS, base: apiBase, headers: { origin: apiBase, cookie: technicianCookie } },
-      { key: 'log', label: 'log a sharpening', request: () => logRequest, max: LOG_MAX_REQUESTS, warmup: LOG_WARMUP_REQUESTS, base: apiBase, headers: { ...apiJson, cookie: technicianCookie } },
+      { key: 'tickets', label: 'ticket list (open)', request: () => ({ method: 'GET', path: `/api/rinks/${large.slug}/tickets` }), max: MAX_REQUESTS, warmup: MAX_REQUESTS, base: apiBase, headers: { origin: apiBase }, client: technician },
+      { key: 'log', label: 'log a sharpening', request: () => logRequest, max: LOG_MAX_REQUESTS, warmup: LOG_WARMUP_REQUESTS, base: apiBase, headers: apiJson, client: technician },
     ];
     const counter: Record<string, Record<number, LoadRun>> = {};
     // Endpoint by endpoint, so the ticket list is measured on the seeded queue, before the run's own tickets exist.
     for (const e of endpoints) {
       if (e.key === 'log') loadTickets = await openTickets();
       for (const connections of CONNECTIONS) {
-        const { run } = await measure(spec(`${e.label}, ${connections} connections`, e.base, connections, e.request(), e.headers, e.max, e.warmup));
+        const headers = e.client ? { ...e.headers, cookie: await e.client.fresh() } : e.headers;
+        const { run } = await measure(spec(`${e.label}, ${connections} connections`, e.base, connections, e.request(), headers, e.max, e.warmup));
         (counter[e.key] ??= {})[connections] = run;
         say(`  ${run.label}: ${fmt(run.okPerSecond)}/s, p50 ${run.latencyMs.p50} ms, p99 ${run.latencyMs.p99} ms, non-2xx ${run.non2xx}, errors ${run.errors}`);
       }
@@ -418,7 +451,7 @@ export async function runBench(config: BenchConfig): Promise<number> {
       reports = await measureReports({
         apiBase,
         slug: large.slug,
-        cookie: managerCookie,
+        cookie: () => manager.fresh(),
         pool,
         tenantId: large.id,
         timeZone: large.timeZone,

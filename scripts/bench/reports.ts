@@ -161,7 +161,8 @@ async function sample<T>(fn: () => Promise<T>, o: { runs: number; least: number;
 export async function measureReports(input: {
   apiBase: string;
   slug: string;
-  cookie: string;
+  /** The client's cookies, renewed as a browser's are (bench.ts, BrowserCookies). */
+  cookie: () => Promise<string>;
   pool: Pool;
   tenantId: string;
   timeZone: string;
@@ -171,7 +172,7 @@ export async function measureReports(input: {
   runs: number;
   budgetMs: number;
 }): Promise<ReportsMeasurement> {
-  const headers = { cookie: input.cookie };
+  const headers = { cookie: await input.cookie() };
   const probe = await getJson(`${input.apiBase}/api/rinks/${input.slug}/reports`, headers);
   if (probe.status !== 200) return { available: false, note: `GET /api/rinks/:rinkSlug/reports answered ${probe.status}: the report routes are not in this API build` };
   const get = async (report: 'throughput' | 'quality'): Promise<ReportBody> => {
@@ -185,7 +186,9 @@ export async function measureReports(input: {
   const settledMs = OVERLAP_MS + 1000;
   await new Promise((resolve) => setTimeout(resolve, settledMs));
   const bounds = { runs: input.runs, least: 5, budgetMs: input.budgetMs };
+  headers.cookie = await input.cookie();
   const throughput = await sample(() => get('throughput'), bounds);
+  headers.cookie = await input.cookie();
   const quality = await sample(() => get('quality'), bounds);
   const range = utcRange(input.timeZone, input.from, input.to);
   const naive = await sample(() => naiveStationFigures(input.pool, { tenantId: input.tenantId, ...range, ...input.bands }), { runs: 10, least: 3, budgetMs: input.budgetMs });
