@@ -134,6 +134,42 @@ describe('quality', () => {
     ]);
   });
 
+  it('keeps each adjustment’s effect current as readings and adjustments follow it', async () => {
+    const db = currentDb();
+    const three = await createStation(db, desk.world.id, { name: 'Station Three' });
+    const t1 = desk.world.staff.technician.id;
+    const base = { customerId: desk.skater.id, serviceId: desk.service.id, createdBy: t1 };
+    const [early, late] = [await createTicket(db, desk.world.id, { ...base, number: 9101, pairs: 1, droppedAt: local('2026-11-10T08:00:00'), stationId: three.id }), await createTicket(db, desk.world.id, { ...base, number: 9102, pairs: 1, droppedAt: local('2026-11-10T14:00:00'), stationId: three.id })];
+    const sharpen = (t: typeof early, readingsNm: number[], doneAt: string) => createSharpening(db, desk.world.id, { ticketId: t.id, pairId: t.pairIds[0]!, stationId: three.id, technicianId: t1, passes: 4, readingsNm, doneAt: local(doneAt) });
+    const adjust = (amountMilli: number, at: string) => db.insert(levelingAdjustment).values({ id: crypto.randomUUID(), tenantId: desk.world.id, stationId: three.id, amountMilli, note: null, at: local(at), byUserId: t1 });
+    const levelingOfThree = async () => {
+      const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/quality?from=2026-11-10&to=2026-11-11&stationId=${three.id}`);
+      expect(res.status).toBe(200);
+      return res.body.tables.leveling.map((a: { amountMilli: number; meanBeforeNm: number | null; meanAfterNm: number | null }) => [a.amountMilli, a.meanBeforeNm, a.meanAfterNm]);
+    };
+    await sharpen(early, [1_000, 3_000], '2026-11-10T09:00:00');
+    await adjust(250, '2026-11-10T12:00:00');
+    // Nothing after it yet: the mean after is unknown.
+    expect(await levelingOfThree()).toEqual([[250, 2_000, null]]);
+    // Written with a past time, as a late sync would be: the sweep's look-back finds it and rebuilds its day.
+    await sharpen(late, [4_000, 8_000], '2026-11-10T15:00:00');
+    await refreshReports(desk.world.id, { since: local('2026-11-10T00:00:00') });
+    expect(await levelingOfThree()).toEqual([[250, 2_000, 6_000]]);
+    // A second adjustment the next morning: before it the four first readings of the 10th, (4,000 + 8,000 + 1,000
+    // + 3,000) / 4 = 4,000; the first keeps its effect.
+    await adjust(-125, '2026-11-11T10:00:00');
+    expect(await levelingOfThree()).toEqual([
+      [250, 2_000, 6_000],
+      [-125, 4_000, null],
+    ]);
+    // A full rebuild measures every adjustment again, to the same figures.
+    await refreshReports(desk.world.id, { full: true });
+    expect(await levelingOfThree()).toEqual([
+      [250, 2_000, 6_000],
+      [-125, 4_000, null],
+    ]);
+  });
+
   it('gives a wheel its pairs and passes since mounting, and the passes its dressings predict', async () => {
     const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/quality?${period}`);
     // Three pairs on the wheel since it was mounted (one before the period): 4 + 5 + 4 = 13 passes, all before the

@@ -153,3 +153,32 @@ export const reportRefresh = mysqlTable(
   },
   (t) => [primaryKey({ name: 'report_refresh_pk', columns: [t.tenantId] }), rinkFk('report_refresh_rink_fk', t.tenantId)],
 );
+
+/**
+ * The effect of each leveling adjustment: the first readings of its station just before it and just after it
+ * (up to EFFECT_READINGS each side, in the report service), as counts and sums for the means. `windowFrom` and
+ * `windowTo` are the times of the oldest reading before and the newest after it that were counted, null while that
+ * side has fewer than it needs: a reading written between them (or on an open side) changes the effect, so the
+ * refresh computes the adjustment again; one outside them cannot.
+ */
+export const reportLeveling = mysqlTable(
+  'report_leveling',
+  {
+    tenantId: tenantId(),
+    adjustmentId: keyId('adjustment_id').notNull(),
+    stationId: keyId('station_id').notNull(),
+    at: at('at').notNull(),
+    amountMilli: int('amount_milli').notNull(),
+    beforeReadings: int('before_readings').notNull(),
+    beforeSumNm: bigint('before_sum_nm', { mode: 'number' }).notNull(),
+    afterReadings: int('after_readings').notNull(),
+    afterSumNm: bigint('after_sum_nm', { mode: 'number' }).notNull(),
+    windowFrom: at('window_from'),
+    windowTo: at('window_to'),
+  },
+  (t) => [
+    primaryKey({ name: 'report_leveling_pk', columns: [t.tenantId, t.adjustmentId] }),
+    rinkFk('report_leveling_rink_fk', t.tenantId),
+    index('report_leveling_tenant_at_idx').on(t.tenantId, t.at),
+  ],
+);

@@ -11,6 +11,9 @@ import { withRollups } from './rollup';
 // recomputed whole from the raw rows and replaced, so a refresh can run any number of times and the result
 // is the same. The report routes refresh before they read, and the worker refreshes every rink as it goes.
 
+/** How many first readings on each side of a leveling adjustment show its effect. */
+export const EFFECT_READINGS = 10;
+
 /**
  * How far before the watermark a refresh looks again: a row stamped just before the last refresh whose
  * transaction committed just after it is still found. Kept short, because every refresh in that window
@@ -54,6 +57,7 @@ export async function refreshReports(tenantId: string, options: { full?: boolean
     }
     // A full rebuild also clears summaries of days that no longer have any data.
     if (full) await repo.clearOutside(s, runs[0] ?? null);
+    await measureLeveling(s, full ? 'all' : runs.map((run) => ({ start: clock.startOf(run.first), end: clock.startOf(nextDay(run.last)) })));
     await repo.saveWatermark(s, now);
     return { days, full };
   });
@@ -202,4 +206,40 @@ async function driftTransitions(s: Scope, clock: LocalClock, stationId: string, 
     alert = now;
   }
   return [...days.values()];
+}
+
+/**
+ * Keeps report_leveling current. An adjustment is measured when it has no stored effect yet (a new one, or every one
+ * after the table was added), on a full rebuild, and when a rebuilt range reaches into the window of readings its
+ * effect was taken from, or its window is still open (schema/reports.ts).
+ */
+async function measureLeveling(s: Scope, changed: 'all' | { start: Date; end: Date }[]): Promise<void> {
+  const counts = await repo.levelingCounts(s);
+  if (changed !== 'all' && changed.length === 0 && counts.adjustments === counts.measured) return;
+  const [adjustments, windows] = await Promise.all([repo.allAdjustments(s), repo.measuredWindows(s)]);
+  const stored = new Map(windows.map((w) => [w.adjustmentId, w]));
+  const due = adjustments.filter((a) => {
+    const w = stored.get(a.id);
+    if (changed === 'all' || !w) return true;
+    return changed.some((r) => (w.windowFrom === null || w.windowFrom < r.end) && (w.windowTo === null || w.windowTo >= r.start));
+  });
+  const rows: repo.LevelingRow[] = [];
+  for (const a of due) {
+    // Newest first before it, oldest first after it: the last of each is the window's far end.
+    const before = await repo.firstReadingsAround(s, a.stationId, a.at, 'before', EFFECT_READINGS);
+    const after = await repo.firstReadingsAround(s, a.stationId, a.at, 'after', EFFECT_READINGS);
+    rows.push({
+      adjustmentId: a.id,
+      stationId: a.stationId,
+      at: a.at,
+      amountMilli: a.amountMilli,
+      beforeReadings: before.length,
+      beforeSumNm: before.reduce((n, r) => n + r.readingNm, 0),
+      afterReadings: after.length,
+      afterSumNm: after.reduce((n, r) => n + r.readingNm, 0),
+      windowFrom: before.length === EFFECT_READINGS ? before[before.length - 1]!.takenAt : null,
+      windowTo: after.length === EFFECT_READINGS ? after[after.length - 1]!.takenAt : null,
+    });
+  }
+  await repo.replaceLeveling(s, rows);
 }

@@ -15,6 +15,7 @@ import {
   refund,
   reportCreditDay,
   reportDriftDay,
+  reportLeveling,
   reportMoneyDay,
   reportRefresh,
   reportTurnaround,
@@ -338,8 +339,36 @@ export const productsOf = (s: Scope) => s.findJoined(product, { fields: { id: pr
 export const techniciansOf = (s: Scope) =>
   s.findJoined(member, { fields: { id: user.id, name: user.name, role: member.role }, joins: [{ table: user, on: eq(user.id, member.userId) }], orderBy: asc(user.name) });
 
-export const adjustmentsIn = (s: Scope, r: Range, stationId?: string) =>
-  s.find(levelingAdjustment, { where: and(inRange(levelingAdjustment.at, r), stationId ? eq(levelingAdjustment.stationId, stationId) : undefined), orderBy: asc(levelingAdjustment.at) });
+// ---- leveling effects (report_leveling) -------------------------------------------------------------------------------
+
+export type LevelingRow = Omit<typeof reportLeveling.$inferInsert, 'tenantId'>;
+
+/** How many adjustments the rink has, and how many have their effect stored: equal means none is missing. */
+export async function levelingCounts(s: Scope): Promise<{ adjustments: number; measured: number }> {
+  const [adjustments, measured] = await Promise.all([s.count(levelingAdjustment), s.count(reportLeveling)]);
+  return { adjustments, measured };
+}
+
+export const allAdjustments = (s: Scope) =>
+  s.findJoined(levelingAdjustment, {
+    fields: { id: levelingAdjustment.id, stationId: levelingAdjustment.stationId, at: levelingAdjustment.at, amountMilli: levelingAdjustment.amountMilli },
+    joins: [],
+  });
+
+export const measuredWindows = (s: Scope) =>
+  s.findJoined(reportLeveling, { fields: { adjustmentId: reportLeveling.adjustmentId, windowFrom: reportLeveling.windowFrom, windowTo: reportLeveling.windowTo }, joins: [] });
+
+export async function replaceLeveling(s: Scope, rows: LevelingRow[]): Promise<void> {
+  for (let i = 0; i < rows.length; i += 1000) {
+    const part = rows.slice(i, i + 1000);
+    await s.remove(reportLeveling, inArray(reportLeveling.adjustmentId, part.map((r) => r.adjustmentId)));
+    await s.insert(reportLeveling, part);
+  }
+}
+
+/** The stored effects of the adjustments in a range, oldest first. */
+export const levelingIn = (s: Scope, r: Range, stationId?: string) =>
+  s.find(reportLeveling, { where: and(inRange(reportLeveling.at, r), stationId ? eq(reportLeveling.stationId, stationId) : undefined), orderBy: asc(reportLeveling.at) });
 
 /** The drift watch's series of a station (check readings and first readings): those in the range, oldest first. */
 export const seriesIn = (s: Scope, stationId: string, r: Range) =>
@@ -363,7 +392,7 @@ export const seriesBefore = (s: Scope, stationId: string, at: Date, limit: numbe
 /** The last `limit` first readings before a moment (newest first), or the first after it (oldest first). */
 export const firstReadingsAround = (s: Scope, stationId: string, at: Date, side: 'before' | 'after', limit: number) =>
   s.findJoined(levelReading, {
-    fields: { readingNm: levelReading.readingNm },
+    fields: { readingNm: levelReading.readingNm, takenAt: levelReading.takenAt },
     joins: [],
     where: and(eq(levelReading.stationId, stationId), eq(levelReading.attempt, 1), side === 'before' ? lt(levelReading.takenAt, at) : gte(levelReading.takenAt, at)),
     orderBy: side === 'before' ? sql`${levelReading.takenAt} desc` : asc(levelReading.takenAt),

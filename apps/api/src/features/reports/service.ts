@@ -139,22 +139,12 @@ function qualityOf(rows: { firstReadings: number; firstTrue: number; firstFair: 
   };
 }
 
-const mean = (values: number[]) => (values.length ? Math.round(values.reduce((a, v) => a + v, 0) / values.length) : null);
-/** How many first readings on each side of an adjustment show its effect. */
-const EFFECT_READINGS = 10;
+const meanOf = (sum: number, count: number) => (count > 0 ? Math.round(sum / count) : null);
 
 export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<QualityReport> {
   const clock = localClock(zone);
   const range = { start: clock.startOf(q.from), end: clock.startOf(nextDay(q.to)) };
-  // The leveling and wheel tables each read in two steps; all three tables' reads run at once.
-  const effects = repo.adjustmentsIn(s, range, q.stationId).then((adjustments) =>
-    Promise.all(
-      adjustments.map(async (a) => {
-        const [before, after] = await Promise.all([repo.firstReadingsAround(s, a.stationId, a.at, 'before', EFFECT_READINGS), repo.firstReadingsAround(s, a.stationId, a.at, 'after', EFFECT_READINGS)]);
-        return { adjustment: a, meanBeforeNm: mean(before.map((r) => r.readingNm)), meanAfterNm: mean(after.map((r) => r.readingNm)) };
-      }),
-    ),
-  );
+  // The wheel table reads in two steps; every table's reads run at once.
   const wear = repo.wheelsIn(s, range).then(async (all) => {
     const wheels = all.filter((w) => !q.stationId || w.stationId === q.stationId);
     const [usage, dressings] = await Promise.all([repo.wheelDays(s, wheels.map((w) => w.id)), repo.measuredDressingsOf(s, wheels.map((w) => w.id))]);
@@ -165,7 +155,7 @@ export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<Q
     q.compareFrom && q.compareTo ? repo.workBy(s, { from: q.compareFrom, to: q.compareTo, stationId: q.stationId, technicianId: q.technicianId }, 'all') : null,
     repo.stationsOf(s),
     repo.driftRows(s, { from: q.from, to: q.to, stationId: q.stationId }),
-    effects,
+    repo.levelingIn(s, range, q.stationId),
     wear,
   ]);
   const shown = stations.filter((st) => !q.stationId || st.id === q.stationId);
@@ -176,9 +166,17 @@ export async function quality(s: Scope, q: ReportQuery, zone: string): Promise<Q
     if (rows.length === 0 && alerts.raised === 0 && alerts.cleared === 0) continue;
     byStation.push({ stationId: st.id, station: st.name, ...qualityOf(rows), driftAlertsRaised: alerts.raised, driftAlertsCleared: alerts.cleared });
   }
-  const leveling = leveled.map(({ adjustment: a, meanBeforeNm, meanAfterNm }) => {
+  const leveling = leveled.map((a) => {
     const st = stations.find((x) => x.id === a.stationId);
-    return { stationId: a.stationId, station: st?.name ?? 'Removed station', at: a.at.toISOString(), amountMilli: a.amountMilli, unit: st?.adjustUnit ?? 'turns', meanBeforeNm, meanAfterNm };
+    return {
+      stationId: a.stationId,
+      station: st?.name ?? 'Removed station',
+      at: a.at.toISOString(),
+      amountMilli: a.amountMilli,
+      unit: st?.adjustUnit ?? 'turns',
+      meanBeforeNm: meanOf(a.beforeSumNm, a.beforeReadings),
+      meanAfterNm: meanOf(a.afterSumNm, a.afterReadings),
+    };
   });
   const daysOf = groupBy(usage, (u) => u.wheelId);
   const dressingsOf = groupBy(dressings, (d) => d.wheelId);
