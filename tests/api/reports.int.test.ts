@@ -140,7 +140,7 @@ describe('quality', () => {
     const t1 = desk.world.staff.technician.id;
     const base = { customerId: desk.skater.id, serviceId: desk.service.id, createdBy: t1 };
     const [early, late] = [await createTicket(db, desk.world.id, { ...base, number: 9101, pairs: 1, droppedAt: local('2026-11-10T08:00:00'), stationId: three.id }), await createTicket(db, desk.world.id, { ...base, number: 9102, pairs: 1, droppedAt: local('2026-11-10T14:00:00'), stationId: three.id })];
-    const sharpen = (t: typeof early, readingsNm: number[], doneAt: string) => createSharpening(db, desk.world.id, { ticketId: t.id, pairId: t.pairIds[0]!, stationId: three.id, technicianId: t1, passes: 4, readingsNm, doneAt: local(doneAt) });
+    const sharpen = (t: typeof early, readingsNm: [number, number], doneAt: string) => createSharpening(db, desk.world.id, { ticketId: t.id, pairId: t.pairIds[0]!, stationId: three.id, technicianId: t1, passes: 4, readingsNm, doneAt: local(doneAt) });
     const adjust = (amountMilli: number, at: string) => db.insert(levelingAdjustment).values({ id: crypto.randomUUID(), tenantId: desk.world.id, stationId: three.id, amountMilli, note: null, at: local(at), byUserId: t1 });
     const levelingOfThree = async () => {
       const res = await manager.get(`/api/rinks/${desk.world.slug}/reports/quality?from=2026-11-10&to=2026-11-11&stationId=${three.id}`);
