@@ -1,11 +1,11 @@
 import { randomUUID } from 'node:crypto';
-import { asc, eq } from 'drizzle-orm';
+import { asc, eq, sql } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { connectDb, currentDb, disconnectDb } from './client';
 import { dbEnv } from './env';
 import { addMember, createCustomer, createRink, createUser } from './factories';
 import { customer, member, rink, user } from './schema/index';
-import { scoped } from './scope';
+import { qualified, scoped } from './scope';
 
 // Two rinks that share one person (staff at both), each with customers: every scope operation of rink A
 // must act on A's rows alone, even when its condition names B's rows.
@@ -90,6 +90,22 @@ describe('scoped(tenantId)', () => {
     });
 
     expect(rows).toEqual([{ customerId: w.customerA.id, memberId: w.memberA.id, role: 'technician', email: w.shared.email }]);
+  });
+
+  it('qualified names the outer row in a subquery of a one-table select, where a bare column is the inner one', async () => {
+    const w = await twoRinks();
+    const scope = scoped(w.b.id);
+    const [row] = await scope.findJoined(customer, {
+      fields: {
+        // Rink B has two customers; every rink of the test database together has more.
+        ownRink: sql<number>`(select count(*) from ${customer} as c2 where c2.tenant_id = ${qualified(customer, customer.tenantId)})`.mapWith(Number),
+        bare: sql<number>`(select count(*) from ${customer} as c2 where c2.tenant_id = ${customer.tenantId})`.mapWith(Number),
+      },
+      joins: [],
+      where: eq(customer.id, w.customerB.id),
+    });
+    expect(row?.ownRink).toBe(2);
+    expect(row?.bare).toBeGreaterThan(2);
   });
 
   it('insert sets the tenant even when the values name another one', async () => {

@@ -1,4 +1,4 @@
-import { and, count as countFn, eq, type SQL } from 'drizzle-orm';
+import { and, count as countFn, eq, sql, type SQL } from 'drizzle-orm';
 import { getTableConfig, type AnyMySqlColumn, type MySqlTable } from 'drizzle-orm/mysql-core';
 import { currentDb, reportsDb, type Executor } from './client';
 import { rink } from './schema/index';
@@ -65,6 +65,14 @@ export interface Scope {
 }
 
 export type RinkSettings = Partial<Omit<typeof rink.$inferInsert, 'id' | 'slug' | 'createdAt'>>;
+
+/**
+ * A column written with its table's name. For a subquery in the fields of a one-table select, where Drizzle writes
+ * bare column names: a bare `tenant_id` inside `(select … from product where …)` is the product's own.
+ */
+export function qualified(table: MySqlTable, column: AnyMySqlColumn): SQL {
+  return sql`${table}.${sql.identifier(column.name)}`;
+}
 
 const tenantColumns = new WeakMap<MySqlTable, AnyMySqlColumn>();
 

@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, lte, or, sql } from 'drizzle-orm';
-import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, product, user, type Scope } from '@rinkwright/db';
+import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, product, qualified, user, type Scope } from '@rinkwright/db';
 
 // The ledger's queries. Every function takes the caller's scope, usually a transaction's, so that a whole
 // operation (lock, read lots, write entries, move `remaining`) commits or rolls back as one.
@@ -52,9 +52,9 @@ export function lotsOf(s: Scope, accountIds: string[], options: { liveOnly?: boo
   return s.findJoined(creditLot, {
     fields: {
       ...columnsOf(creditLot),
-      productName: sql<string | null>`(select ${product.name} from ${product} where ${product.tenantId} = ${creditLot.tenantId} and ${product.id} = ${creditLot.productId})`,
-      membershipState: sql<LotWithContext['membershipState']>`(select ${membership.state} from ${membership} where ${membership.tenantId} = ${creditLot.tenantId} and ${membership.id} = ${creditLot.membershipId})`,
-      membershipGraceUntil: sql<Date | null>`(select ${membership.graceUntil} from ${membership} where ${membership.tenantId} = ${creditLot.tenantId} and ${membership.id} = ${creditLot.membershipId})`.mapWith(
+      productName: sql<string | null>`(select ${product.name} from ${product} where ${product.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${product.id} = ${qualified(creditLot, creditLot.productId)})`,
+      membershipState: sql<LotWithContext['membershipState']>`(select ${membership.state} from ${membership} where ${membership.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${membership.id} = ${qualified(creditLot, creditLot.membershipId)})`,
+      membershipGraceUntil: sql<Date | null>`(select ${membership.graceUntil} from ${membership} where ${membership.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${membership.id} = ${qualified(creditLot, creditLot.membershipId)})`.mapWith(
         (v: string | Date | null) => (v === null ? null : v instanceof Date ? v : new Date(`${v.replace(' ', 'T')}Z`)),
       ),
     },
