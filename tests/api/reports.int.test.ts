@@ -248,6 +248,14 @@ describe('league usage', () => {
       { leagueId, league: 'Report League', teamId: gulls.id, team: 'Gulls', allocated: 8, usedInPeriod: 3, used: 3, remaining: 5 },
       { leagueId, league: 'Report League', teamId: pilots.id, team: 'Pilots', allocated: 5, usedInPeriod: 0, used: 0, remaining: 5 },
     ]);
+    // The league's own page gives each team the same figures.
+    const page = (await leagueManager.get(`/api/rinks/${desk.world.slug}/leagues/${leagueId}`)).body.teams as { id: string; allocated: number; used: number; remaining: number }[];
+    expect(page.map((t) => [t.id, t.allocated, t.used, t.remaining]).sort()).toEqual(
+      [
+        [gulls.id, 8, 3, 5],
+        [pilots.id, 5, 0, 5],
+      ].sort(),
+    );
     const earlier = await leagueManager.get(`/api/rinks/${desk.world.slug}/reports/leagues?${period}`);
     expect(earlier.body.tables.teams.find((t: { teamId: string }) => t.teamId === gulls.id)).toMatchObject({ usedInPeriod: 0, used: 3 });
   });

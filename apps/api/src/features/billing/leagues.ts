@@ -2,7 +2,7 @@ import { createHash, randomUUID } from 'node:crypto';
 import { parse } from 'csv-parse/sync';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { rosterRow, type AllocationInput, type LeagueDetail, type LeagueInput, type RosterResult, type RosterRow } from '@rinkwright/core';
-import { creditEntry, customer, league, leaguePlayer, leagueTeam, member, rosterImport, scoped, user, type Scope } from '@rinkwright/db';
+import { customer, league, leaguePlayer, leagueTeam, member, rosterImport, scoped, user, type Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
 import { insertNewCustomer } from '../../lib/customers';
@@ -77,32 +77,18 @@ export async function describeLeague(ctx: RinkContext, leagueId: string): Promis
     where: eq(leaguePlayer.leagueId, leagueId),
     orderBy: asc(customer.name),
   });
-  const teamRows = [];
-  for (const t of teams) {
-    const account = await ledger.teamAccount(s, leagueId, t.id);
-    const b = await ledger.balanceOf(s, [account.id]);
-    const [moved] = await s.findJoined(creditEntry, {
-      fields: {
-        allocated: sql<number>`coalesce(sum(case when ${creditEntry.kind} = 'transfer' and ${creditEntry.credits} > 0 then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
-        used: sql<number>`coalesce(-sum(case when ${creditEntry.kind} in ('redeem', 'reversal') then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
-      },
-      joins: [],
-      where: eq(creditEntry.accountId, account.id),
-    });
-    const teamPlayers = [];
-    for (const p of players.filter((p) => p.teamId === t.id)) {
-      const acct = await ledger.findSkaterAccount(s, p.customerId);
-      teamPlayers.push({ id: p.id, customerId: p.customerId, name: p.name, email: p.email, credits: (await ledger.balanceOf(s, acct ? [acct.id] : [])).credits });
-    }
-    teamRows.push({
+  const [usage, credits] = await Promise.all([ledger.teamUsage(s, [leagueId]), ledger.creditsOfCustomers(s, players.map((p) => p.customerId))]);
+  const teamRows = teams.map((t) => {
+    const u = usage.get(t.id);
+    return {
       id: t.id,
       name: t.name,
-      allocated: moved?.allocated ?? 0,
-      used: moved?.used ?? 0,
-      remaining: b.credits,
-      players: teamPlayers,
-    });
-  }
+      allocated: u?.allocated ?? 0,
+      used: u?.used ?? 0,
+      remaining: u?.remaining ?? 0,
+      players: players.filter((p) => p.teamId === t.id).map((p) => ({ id: p.id, customerId: p.customerId, name: p.name, email: p.email, credits: credits.get(p.customerId) ?? 0 })),
+    };
+  });
   const products = await repo.listProducts(s);
   const packs = describeProducts(products.filter((p) => p.kind === 'league_pack' && p.active === 1), await repo.pricesOf(s, products.map((p) => p.id)));
   const imports = await s.findJoined(rosterImport, {

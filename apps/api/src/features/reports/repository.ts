@@ -1,7 +1,6 @@
 import { and, asc, eq, gte, inArray, isNotNull, isNull, lt, max, min, ne, sql, sum, type SQL } from 'drizzle-orm';
 import type { AnyMySqlColumn } from 'drizzle-orm/mysql-core';
 import {
-  creditAccount,
   creditEntry,
   creditLot,
   leagueTeam,
@@ -424,29 +423,8 @@ export const membershipsWithPrice = (s: Scope) =>
     ],
   });
 
+export const teamsOf = (s: Scope, leagueIds: string[]) => (leagueIds.length === 0 ? Promise.resolve([]) : s.find(leagueTeam, { where: inArray(leagueTeam.leagueId, leagueIds) }));
+
 export const leaguesOf = (s: Scope, managerUserId?: string) =>
   s.find(league, { where: managerUserId ? eq(league.managerUserId, managerUserId) : undefined, orderBy: asc(league.name) });
 
-/** Per team of the leagues: credits given to it, used in the range and in all, and left. */
-export async function teamUsage(s: Scope, leagueIds: string[], r: Range) {
-  if (leagueIds.length === 0) return [];
-  const used = sql`${creditEntry.kind} in ('redeem', 'reversal')`;
-  return s.findJoined(leagueTeam, {
-    fields: {
-      leagueId: leagueTeam.leagueId,
-      teamId: leagueTeam.id,
-      team: leagueTeam.name,
-      allocated: sql<number>`coalesce(sum(case when ${creditEntry.kind} = 'transfer' then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
-      usedInPeriod: sql<number>`coalesce(-sum(case when ${used} and ${creditEntry.createdAt} >= ${r.start} and ${creditEntry.createdAt} < ${r.end} then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
-      used: sql<number>`coalesce(-sum(case when ${used} then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
-      remaining: sql<number>`coalesce(sum(${creditEntry.credits}), 0)`.mapWith(Number),
-    },
-    joins: [
-      { table: creditAccount, on: eq(creditAccount.teamId, leagueTeam.id) },
-      { table: creditEntry, on: eq(creditEntry.accountId, creditAccount.id) },
-    ],
-    where: inArray(leagueTeam.leagueId, leagueIds),
-    groupBy: [leagueTeam.leagueId, leagueTeam.id, leagueTeam.name],
-    orderBy: asc(leagueTeam.name),
-  });
-}

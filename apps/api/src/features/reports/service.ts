@@ -18,6 +18,7 @@ import type { RinkContext } from '../../http/route';
 import { localClock, nextDay } from './local-time';
 import { refreshReports } from './refresh';
 import * as repo from './repository';
+import * as ledger from '../../lib/ledger/ledger';
 
 // The four reports of a rink, from its summary tables (read on the reports database). A report first brings
 // the summaries up to date, so what it shows includes the last write.
@@ -298,11 +299,16 @@ export async function leagues(s: Scope, q: ReportQuery, zone: string, managerUse
   const clock = localClock(zone);
   const range = { start: clock.startOf(q.from), end: clock.startOf(nextDay(q.to)) };
   const list = await repo.leaguesOf(s, managerUserId);
-  const usage = await repo.teamUsage(s, list.map((l) => l.id), range);
+  const ids = list.map((l) => l.id);
+  const [teams, usage] = await Promise.all([repo.teamsOf(s, ids), ledger.teamUsage(s, ids, range)]);
   const name = new Map(list.map((l) => [l.id, l.name]));
+  const rows = teams.map((t) => {
+    const u = usage.get(t.id);
+    return { leagueId: t.leagueId, league: name.get(t.leagueId) ?? '', teamId: t.id, team: t.name, allocated: u?.allocated ?? 0, usedInPeriod: u?.usedInRange ?? 0, used: u?.used ?? 0, remaining: u?.remaining ?? 0 };
+  });
   return {
     period: { from: q.from, to: q.to },
-    tables: { teams: usage.map((u) => ({ ...u, league: name.get(u.leagueId) ?? '' })).sort((a, b) => a.league.localeCompare(b.league) || a.team.localeCompare(b.team)) },
+    tables: { teams: rows.sort((a, b) => a.league.localeCompare(b.league) || a.team.localeCompare(b.team)) },
   };
 }
 

@@ -2,6 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { creditBalance, deferredRevenueMinor, graceLapsed, lotToRedeem, lotValueMinor, membershipRollover, type EntryRow, type Lot, type LotRow } from '@rinkwright/core';
 import type { Scope } from '@rinkwright/db';
 import { AppError } from '../../http/errors';
+import { groupBy } from '../sorted';
 import * as repo from './repository';
 
 // The credit ledger's operations. Each runs inside the caller's transaction (or opens one), locks the account
@@ -91,6 +92,39 @@ export async function balanceOf(s: Scope, accountIds: string[], now = new Date()
         createdAt: l.createdAt.toISOString(),
       })),
   };
+}
+
+/** The credits usable now on each of the accounts (an account without any is left out). */
+export async function creditsByAccount(s: Scope, accountIds: string[], now = new Date()): Promise<Map<string, number>> {
+  const lots = await repo.lotsOf(s, accountIds);
+  const usable = groupBy(lots.filter((l) => redeemable(l, now)), (l) => l.accountId);
+  return new Map([...usable].map(([accountId, list]) => [accountId, creditBalance(list.map((l) => asUsableLot(l, now)), now)]));
+}
+
+/** The credits usable now by each of the customers, from their own accounts. */
+export async function creditsOfCustomers(s: Scope, customerIds: string[], now = new Date()): Promise<Map<string, number>> {
+  const accounts = await repo.accountsOfCustomers(s, customerIds);
+  const credits = await creditsByAccount(s, accounts.map((a) => a.id), now);
+  return new Map(accounts.map((a) => [a.customerId!, credits.get(a.id) ?? 0]));
+}
+
+export interface TeamUsage {
+  allocated: number;
+  used: number;
+  /** Used within the range asked for (all of it without one). */
+  usedInRange: number;
+  /** Usable now. */
+  remaining: number;
+}
+
+/**
+ * Each team of the leagues, by team id: credits allocated to it, used, and left to use. The league's own page and
+ * the league usage report both read this, so they cannot disagree.
+ */
+export async function teamUsage(s: Scope, leagueIds: string[], range?: { start: Date; end: Date }, now = new Date()): Promise<Map<string, TeamUsage>> {
+  const moved = await repo.teamMovements(s, leagueIds, range);
+  const remaining = await creditsByAccount(s, moved.map((m) => m.accountId), now);
+  return new Map(moved.map((m) => [m.teamId!, { allocated: m.allocated, used: m.used, usedInRange: range ? m.usedInRange : m.used, remaining: remaining.get(m.accountId) ?? 0 }]));
 }
 
 export async function historyOf(s: Scope, accountIds: string[], limit = 200): Promise<EntryRow[]> {

@@ -11,6 +11,32 @@ export type NewEntry = Omit<typeof creditEntry.$inferInsert, 'tenantId'>;
 export type NewLot = Omit<typeof creditLot.$inferInsert, 'tenantId'>;
 
 export const findAccountOfCustomer = (s: Scope, customerId: string) => s.findOne(creditAccount, eq(creditAccount.customerId, customerId));
+export const accountsOfCustomers = (s: Scope, customerIds: string[]) =>
+  customerIds.length === 0
+    ? Promise.resolve([])
+    : s.findJoined(creditAccount, { fields: { id: creditAccount.id, customerId: creditAccount.customerId }, joins: [], where: inArray(creditAccount.customerId, customerIds) });
+
+/**
+ * Credits moved on the team accounts of the leagues, per account: allocated to the team (its transfers in), used
+ * (redemptions, less the ones reversed) in all and within a range. An account with no entry has no row.
+ */
+export function teamMovements(s: Scope, leagueIds: string[], range?: { start: Date; end: Date }) {
+  if (leagueIds.length === 0) return Promise.resolve([]);
+  const used = sql`${creditEntry.kind} in ('redeem', 'reversal')`;
+  const inRange = range ? sql`${creditEntry.createdAt} >= ${range.start} and ${creditEntry.createdAt} < ${range.end}` : sql`true`;
+  return s.findJoined(creditAccount, {
+    fields: {
+      accountId: creditAccount.id,
+      teamId: creditAccount.teamId,
+      allocated: sql<number>`coalesce(sum(case when ${creditEntry.kind} = 'transfer' then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
+      used: sql<number>`coalesce(-sum(case when ${used} then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
+      usedInRange: sql<number>`coalesce(-sum(case when ${used} and ${inRange} then ${creditEntry.credits} else 0 end), 0)`.mapWith(Number),
+    },
+    joins: [{ table: creditEntry, on: eq(creditEntry.accountId, creditAccount.id) }],
+    where: and(inArray(creditAccount.leagueId, leagueIds), eq(creditAccount.kind, 'team')),
+    groupBy: [creditAccount.id, creditAccount.teamId],
+  });
+}
 export const findAccountOfTeam = (s: Scope, teamId: string) => s.findOne(creditAccount, eq(creditAccount.teamId, teamId));
 export const findPoolOfLeague = (s: Scope, leagueId: string) =>
   s.findOne(creditAccount, and(eq(creditAccount.leagueId, leagueId), eq(creditAccount.kind, 'league_pool'))!);
