@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
-import { count, eq } from 'drizzle-orm';
-import { creditEntry } from '@rinkwright/db';
+import { count, desc, eq } from 'drizzle-orm';
+import { creditEntry, payment as paymentTable } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { sweepRink } from '../../apps/api/src/jobs/worker';
@@ -160,6 +160,26 @@ describe('webhooks', () => {
     expect((await post(payload, stale)).status).toBe(400);
     expect((await post(payload, 'garbage')).status).toBe(400);
     expect(await currentDb().select({ n: count() }).from(creditEntry)).toEqual(before);
+  });
+
+  it('marks a checkout failed when it expires or its delayed payment fails, and grants nothing', async () => {
+    const [secret] = await webhookSecrets('connect');
+    for (const type of ['checkout.session.expired', 'checkout.session.async_payment_failed'] as const) {
+      const email = uniqueEmail('unpaid');
+      const started = await api.client().post(`/api/public/rinks/${desk.world.slug}/checkout`).send({ productId: card.id, email, name: 'Unpaid Skater' });
+      expect(started.status).toBe(201);
+      const [pending] = await currentDb().select().from(paymentTable).where(eq(paymentTable.tenantId, desk.world.id)).orderBy(desc(paymentTable.createdAt)).limit(1);
+      const sessionId = pending!.checkoutSessionId!;
+      const statusOf = async () => (await api.client().get(`/api/public/rinks/${desk.world.slug}/checkout/${sessionId}`)).body.state as string;
+      expect(await statusOf()).toBe('pending');
+      // The event as the payment service sends it (stripe-node's Event shape), about the session it made.
+      const session = await stripe.checkout.sessions.retrieve(sessionId, {}, { stripeAccount: account });
+      const payload = JSON.stringify({ id: `evt_${randomUUID().replaceAll('-', '')}`, object: 'event', type, account, created: Math.floor(Date.now() / 1000), data: { object: session }, livemode: false, pending_webhooks: 1, request: { id: null, idempotency_key: null } });
+      expect((await post(payload, stripe.webhooks.generateTestHeaderString({ payload, secret: secret! }))).status).toBe(200);
+      expect(await statusOf(), type).toBe('failed');
+      const found = await manager.get(`/api/rinks/${desk.world.slug}/customers`).query({ q: email });
+      for (const c of found.body.customers as { id: string }[]) expect((await balanceOf(manager, desk.world, c.id)).credits).toBe(0);
+    }
   });
 
   it('gives exact balances when each event of two purchases is delivered 10 times, shuffled with its neighbours', async () => {

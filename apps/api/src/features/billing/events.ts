@@ -66,7 +66,9 @@ async function handleConnected(deps: SalesDeps, event: Stripe.Event): Promise<vo
       }
       return;
     }
+    // A checkout left unpaid, or paid by a delayed method that then failed: nothing to grant.
     case 'checkout.session.expired':
+    case 'checkout.session.async_payment_failed':
       if (paymentId) await markFailed(s, paymentId);
       return;
     case 'payment_intent.succeeded':
