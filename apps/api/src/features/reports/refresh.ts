@@ -215,7 +215,7 @@ async function driftTransitions(s: Scope, clock: LocalClock, stationId: string, 
  */
 async function measureLeveling(s: Scope, changed: 'all' | { start: Date; end: Date }[]): Promise<void> {
   const counts = await repo.levelingCounts(s);
-  if (changed !== 'all' && changed.length === 0 && counts.adjustments === counts.measured) return;
+  if (counts.adjustments === 0 || (changed !== 'all' && changed.length === 0 && counts.adjustments === counts.measured)) return;
   const [adjustments, windows] = await Promise.all([repo.allAdjustments(s), repo.measuredWindows(s)]);
   const stored = new Map(windows.map((w) => [w.adjustmentId, w]));
   const due = adjustments.filter((a) => {

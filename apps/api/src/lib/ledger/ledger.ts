@@ -65,6 +65,9 @@ export const findPoolAccount = (s: Scope, leagueId: string) => repo.findPoolOfLe
 
 // ---- reading ------------------------------------------------------------------------------------------------
 
+/** The credits of these lots usable now: what a balance counts and a redemption may take. */
+const usableCredits = (lots: repo.LotWithContext[], now: Date) => creditBalance(lots.filter((l) => redeemable(l, now)).map((l) => asUsableLot(l, now)), now);
+
 export interface Balance {
   credits: number;
   valueMinor: number;
@@ -73,9 +76,8 @@ export interface Balance {
 
 export async function balanceOf(s: Scope, accountIds: string[], now = new Date()): Promise<Balance> {
   const lots = await repo.lotsOf(s, accountIds);
-  const usable = lots.filter((l) => redeemable(l, now));
   return {
-    credits: creditBalance(usable.map((l) => asUsableLot(l, now)), now),
+    credits: usableCredits(lots, now),
     valueMinor: deferredRevenueMinor(lots.filter((l) => l.remaining > 0).map((l) => asUsableLot(l, now)), now),
     lots: lots
       .filter((l) => l.remaining > 0 || (l.expiresAt !== null && l.expiresAt > new Date(now.getTime() - 90 * 86_400_000)))
@@ -96,9 +98,8 @@ export async function balanceOf(s: Scope, accountIds: string[], now = new Date()
 
 /** The credits usable now on each of the accounts (an account without any is left out). */
 export async function creditsByAccount(s: Scope, accountIds: string[], now = new Date()): Promise<Map<string, number>> {
-  const lots = await repo.lotsOf(s, accountIds);
-  const usable = groupBy(lots.filter((l) => redeemable(l, now)), (l) => l.accountId);
-  return new Map([...usable].map(([accountId, list]) => [accountId, creditBalance(list.map((l) => asUsableLot(l, now)), now)]));
+  const byAccount = groupBy(await repo.lotsOf(s, accountIds), (l) => l.accountId);
+  return new Map([...byAccount].map(([accountId, lots]) => [accountId, usableCredits(lots, now)]));
 }
 
 /** The credits usable now by each of the customers, from their own accounts. */
@@ -124,15 +125,13 @@ export interface TeamUsage {
 export async function teamUsage(s: Scope, leagueIds: string[], range?: { start: Date; end: Date }, now = new Date()): Promise<Map<string, TeamUsage>> {
   const moved = await repo.teamMovements(s, leagueIds, range);
   const remaining = await creditsByAccount(s, moved.map((m) => m.accountId), now);
-  return new Map(moved.map((m) => [m.teamId!, { allocated: m.allocated, used: m.used, usedInRange: range ? m.usedInRange : m.used, remaining: remaining.get(m.accountId) ?? 0 }]));
+  return new Map(moved.map((m) => [m.teamId!, { allocated: m.allocated, used: m.used, usedInRange: m.usedInRange, remaining: remaining.get(m.accountId) ?? 0 }]));
 }
 
 export async function historyOf(s: Scope, accountIds: string[], limit = 200): Promise<EntryRow[]> {
   const rows = await repo.entriesOf(s, accountIds, limit);
   return rows.map((r) => ({ ...r, createdAt: r.createdAt.toISOString() }));
 }
-
-const usableCredits = (lots: repo.LotWithContext[], now: Date) => lots.filter((l) => redeemable(l, now)).reduce((n, l) => n + l.remaining, 0);
 
 async function usableBalance(s: Scope, accountId: string, now: Date): Promise<number> {
   return usableCredits(await repo.lotsOf(s, [accountId], { liveOnly: true }), now);
