@@ -34,12 +34,16 @@ interface FindOptions {
 interface Join {
   table: MySqlTable;
   on: SQL;
+  /** A left join: the row is kept when nothing matches, and the joined table's fields are null. */
+  left?: true;
 }
 
 /** The part of Drizzle's select builder this module chains; its generics do not survive a generic table. */
 interface Chain extends PromiseLike<unknown[]> {
   where(condition: SQL): Chain;
   innerJoin(table: MySqlTable, on: SQL): Chain;
+  leftJoin(table: MySqlTable, on: SQL): Chain;
+  for(strength: 'update'): Chain;
   orderBy(...order: (SQL | AnyMySqlColumn)[]): Chain;
   groupBy(...columns: (SQL | AnyMySqlColumn)[]): Chain;
   limit(n: number): Chain;
@@ -51,7 +55,8 @@ export interface Scope {
   filter(table: MySqlTable, where?: SQL): SQL;
   find<T extends MySqlTable>(table: T, options?: FindOptions): Promise<Row<T>[]>;
   findOne<T extends MySqlTable>(table: T, where: SQL): Promise<Row<T> | undefined>;
-  findJoined<F extends Fields>(table: MySqlTable, options: FindOptions & { fields: F; joins: Join[] }): Promise<Picked<F>[]>;
+  /** With `lock`, inside a transaction: the rows read from every table of the join are locked (FOR UPDATE). */
+  findJoined<F extends Fields>(table: MySqlTable, options: FindOptions & { fields: F; joins: Join[]; lock?: true }): Promise<Picked<F>[]>;
   count(table: MySqlTable, where?: SQL): Promise<number>;
   /** Inside a transaction: reads the matching rows and holds their row locks until it ends (SELECT … FOR UPDATE). */
   lock<T extends MySqlTable>(table: T, where: SQL): Promise<Row<T>[]>;
@@ -129,8 +134,9 @@ export function scoped(tenantId: string, executor?: Executor): Scope {
 
     async findJoined(table, options) {
       let query = exec().select(options.fields).from(table).$dynamic() as unknown as Chain;
-      for (const join of options.joins) query = query.innerJoin(join.table, joinOn(join));
-      return (await finish(query.where(filter(table, options.where)), options)) as never;
+      for (const join of options.joins) query = join.left ? query.leftJoin(join.table, joinOn(join)) : query.innerJoin(join.table, joinOn(join));
+      query = finish(query.where(filter(table, options.where)), options);
+      return (await (options.lock ? query.for('update') : query)) as never;
     },
 
     async lock(table, where) {

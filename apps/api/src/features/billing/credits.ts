@@ -48,16 +48,16 @@ const entryOut = (op: ledger.Operation): EntryResponse => {
  * read after it are the ones every other redemption left.
  */
 export async function redeemCredit(s: Scope, ctx: RinkContext, customerId: string, key: string, input: { ticketPairId: string | null; note: string | null }): Promise<EntryResponse> {
-  const account = await ledger.lockSkaterAccount(s, customerId);
-  if (!account) {
+  const locked = await ledger.lockSkaterAccount(s, customerId);
+  if (!locked) {
     await requireCustomer(ctx, customerId);
     throw new AppError('insufficient_credits', 'No credits left on this account');
   }
   const op = await ledger.redeem(s, {
-    accountId: account.id,
+    accountId: locked.account.id,
     key: `redeem:${key}`,
     actor: { userId: ctx.userId, source: input.ticketPairId ? 'ticket' : 'staff', sourceId: input.ticketPairId, reason: input.note },
-    locked: true,
+    lockedLots: locked.lots,
     callerReplays: true,
   });
   return entryOut(op);

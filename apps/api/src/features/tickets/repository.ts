@@ -4,6 +4,7 @@ import {
   customer,
   isDuplicateKey,
   levelReading,
+  qualified,
   scoped,
   serviceItem,
   sharpening,
@@ -24,14 +25,25 @@ type NewSharpening = Omit<typeof sharpening.$inferInsert, 'tenantId'>;
 type NewReading = Omit<typeof levelReading.$inferInsert, 'tenantId'>;
 
 export const findStation = (tenantId: string, stationId: string) => scoped(tenantId).findOne(station, eq(station.id, stationId));
+
+/** The station and the wheel mounted on it (`wheelId` null when none), in one read. */
+export async function stationWithWheel(s: Scope, stationId: string) {
+  const [row] = await s.findJoined(station, {
+    fields: { id: station.id, name: station.name, status: station.status, wheelId: wheel.id },
+    joins: [{ table: wheel, on: and(eq(wheel.stationId, station.id), isNull(wheel.removedAt))!, left: true }],
+    where: eq(station.id, stationId),
+    limit: 1,
+  });
+  return row;
+}
 export const activeStations = (tenantId: string) => scoped(tenantId).find(station, { where: eq(station.status, 'active'), orderBy: asc(station.name) });
 export const findCustomer = (tenantId: string, customerId: string) => scoped(tenantId).findOne(customer, eq(customer.id, customerId));
-export const findServices = (tenantId: string, ids: string[]) => scoped(tenantId).find(serviceItem, { where: inArray(serviceItem.id, ids) });
+export const findServices = (s: Scope, ids: string[]) => s.find(serviceItem, { where: inArray(serviceItem.id, ids) });
 export const findProfiles = (tenantId: string, customerId: string, ids: string[]) =>
   ids.length === 0 ? Promise.resolve([]) : scoped(tenantId).find(skateProfile, { where: and(eq(skateProfile.customerId, customerId), inArray(skateProfile.id, ids)) });
 export const findTicket = (tenantId: string, ticketId: string) => scoped(tenantId).findOne(ticket, eq(ticket.id, ticketId));
-export const mountedWheel = async (tenantId: string, stationId: string) =>
-  (await scoped(tenantId).find(wheel, { where: and(eq(wheel.stationId, stationId), isNull(wheel.removedAt)), limit: 1 }))[0];
+/** Inside a transaction: the ticket with its row locked, so two tablets writing to one ticket take turns. */
+export const lockTicket = async (s: Scope, ticketId: string) => (await s.lock(ticket, eq(ticket.id, ticketId)))[0];
 
 /** Opens a ticket with its pairs and its first event. The number is the rink's next; a race retries. */
 /** `within` runs in the same transaction (the pairs' credits are redeemed there, so a refusal keeps no ticket). */
@@ -89,8 +101,8 @@ export function listTickets(tenantId: string, filter: { states: TicketState[]; s
 }
 
 /** One ticket's summary with its notes, in whatever state it is. */
-export async function findTicketSummary(tenantId: string, ticketId: string) {
-  const [row] = await scoped(tenantId).findJoined(ticket, {
+export async function findTicketSummary(s: Scope, ticketId: string) {
+  const [row] = await s.findJoined(ticket, {
     fields: { ...summaryFields(), notes: ticket.notes, voidReason: ticket.voidReason },
     joins: [{ table: customer, on: eq(customer.id, ticket.customerId) }],
     where: eq(ticket.id, ticketId),
@@ -98,8 +110,7 @@ export async function findTicketSummary(tenantId: string, ticketId: string) {
   return row;
 }
 
-export async function ticketParts(tenantId: string, ticketId: string) {
-  const scope = scoped(tenantId);
+export async function ticketParts(scope: Scope, ticketId: string) {
   const [pairs, sharpenings, readings, events] = await Promise.all([
     scope.findJoined(ticketPair, {
       fields: {
@@ -163,19 +174,21 @@ export async function ticketParts(tenantId: string, ticketId: string) {
         fromState: ticketEvent.fromState,
         toState: ticketEvent.toState,
         stationId: ticketEvent.stationId,
+        stationName: station.name,
         reason: ticketEvent.reason,
         at: ticketEvent.at,
         by: user.name,
       },
-      joins: [{ table: user, on: eq(user.id, ticketEvent.byUserId) }],
+      joins: [
+        { table: user, on: eq(user.id, ticketEvent.byUserId) },
+        { table: station, on: eq(station.id, ticketEvent.stationId), left: true },
+      ],
       where: eq(ticketEvent.ticketId, ticketId),
       orderBy: [asc(ticketEvent.at), asc(ticketEvent.id)],
     }),
   ]);
   return { pairs, sharpenings, readings, events };
 }
-
-export const stationNames = async (tenantId: string) => new Map((await scoped(tenantId).find(station)).map((s) => [s.id, s.name]));
 
 /** Moves the ticket from one state to another, only if it is still in the state the caller saw. */
 export async function moveTicket(
@@ -195,53 +208,32 @@ export async function moveTicket(
   });
 }
 
-/**
- * Logs a pair in one transaction that first takes the ticket's row lock, so two tablets logging on one ticket at
- * once take turns: the second sees the first's pair and sharpening before it decides a new pair's position or
- * whether the named pair is done. The ticket must still be open for work. Logging at a station puts the ticket on
- * that station (as the technician would by hand), in the same transaction, so a refused log moves nothing.
- */
-export async function insertSharpening(
-  tenantId: string,
-  input: {
-    ticketId: string;
-    putOn: { stationId: string; at: Date; byUserId: string };
-    newPair?: Omit<NewPair, 'position'>;
-    sharpening: NewSharpening;
-    readings: NewReading[];
-    /** Runs under the ticket's lock, after a new pair is written (a batch pair draws its credit here). */
-    withinNewPair?: (tx: Scope, pairId: string) => Promise<void>;
-  },
-): Promise<'logged' | 'already_logged' | 'closed'> {
-  return scoped(tenantId).transaction(async (tx: Scope) => {
-    const [open] = await tx.lock(ticket, and(eq(ticket.id, input.ticketId), inArray(ticket.state, ['waiting', 'on_station']))!);
-    if (!open) return 'closed';
-    if (!input.newPair && (await tx.count(sharpening, and(eq(sharpening.ticketPairId, input.sharpening.ticketPairId), isNull(sharpening.correctsId)))) > 0) {
-      return 'already_logged';
-    }
-    if (open.state === 'waiting' || open.stationId !== input.putOn.stationId) {
-      const { stationId, at, byUserId } = input.putOn;
-      await tx.update(ticket, { state: 'on_station', stationId, startedAt: open.startedAt ?? at }, eq(ticket.id, open.id));
-      await tx.insert(ticketEvent, { id: randomUUID(), ticketId: open.id, fromState: open.state, toState: 'on_station', stationId, reason: null, at, byUserId });
-    }
-    if (input.newPair) {
-      const [last] = await tx.findJoined(ticketPair, { fields: { n: max(ticketPair.position) }, joins: [], where: eq(ticketPair.ticketId, input.ticketId) });
-      await tx.insert(ticketPair, { ...input.newPair, position: (last?.n ?? 0) + 1 });
-      if (input.withinNewPair) await input.withinNewPair(tx, input.newPair.id);
-    }
-    await tx.insert(sharpening, input.sharpening);
-    if (input.readings.length) await tx.insert(levelReading, input.readings);
-    return 'logged';
-  });
+/** A pair of the ticket, with how many original (not correcting) sharpenings it has, in one read. */
+export async function pairOfTicket(s: Scope, ticketId: string, pairId: string) {
+  const logged = sql<number>`(select count(*) from ${sharpening} where ${sharpening.tenantId} = ${qualified(ticketPair, ticketPair.tenantId)} and ${sharpening.ticketPairId} = ${qualified(ticketPair, ticketPair.id)} and ${sharpening.correctsId} is null)`.mapWith(Number);
+  const [row] = await s.findJoined(ticketPair, { fields: { id: ticketPair.id, logged }, joins: [], where: and(eq(ticketPair.id, pairId), eq(ticketPair.ticketId, ticketId)) });
+  return row;
+}
+
+/** Puts the ticket on a station, as the technician would by hand, with its event. */
+export async function putOnStation(s: Scope, from: TicketRow, to: { stationId: string; at: Date; byUserId: string }) {
+  const { stationId, at, byUserId } = to;
+  await s.update(ticket, { state: 'on_station', stationId, startedAt: from.startedAt ?? at }, eq(ticket.id, from.id));
+  await s.insert(ticketEvent, { id: randomUUID(), ticketId: from.id, fromState: from.state, toState: 'on_station', stationId, reason: null, at, byUserId });
+}
+
+/** A pair added to the ticket after the last one. Under the ticket's lock, so two new pairs never share a position. */
+export async function insertPair(s: Scope, pair: Omit<NewPair, 'position'>) {
+  const [last] = await s.findJoined(ticketPair, { fields: { n: max(ticketPair.position) }, joins: [], where: eq(ticketPair.ticketId, pair.ticketId) });
+  await s.insert(ticketPair, { ...pair, position: (last?.n ?? 0) + 1 });
+}
+
+export async function insertSharpening(s: Scope, row: NewSharpening, readings: NewReading[]) {
+  await s.insert(sharpening, row);
+  if (readings.length) await s.insert(levelReading, readings);
 }
 
 export const pairIdsOf = async (tenantId: string, ticketId: string) => (await scoped(tenantId).find(ticketPair, { where: eq(ticketPair.ticketId, ticketId) })).map((p) => p.id);
-
-export const findPair = (tenantId: string, ticketId: string, pairId: string) =>
-  scoped(tenantId).findOne(ticketPair, and(eq(ticketPair.id, pairId), eq(ticketPair.ticketId, ticketId))!);
-
-export const originalSharpeningsOfPair = (tenantId: string, pairId: string) =>
-  scoped(tenantId).count(sharpening, and(eq(sharpening.ticketPairId, pairId), isNull(sharpening.correctsId)));
 
 export const findSharpening = (tenantId: string, sharpeningId: string) => scoped(tenantId).findOne(sharpening, eq(sharpening.id, sharpeningId));
 

@@ -60,7 +60,7 @@ export function ticketRoutes(deps: tickets.TicketDeps) {
       permission: { ticket: ['read'] },
       params: ticketParams,
       response: ticketDetail,
-      handle: ({ ctx, params }) => tickets.describeTicket(ctx, params.ticketId),
+      handle: ({ scope, params }) => tickets.describeTicket(scope, params.ticketId),
     }),
     defineRoute({
       method: 'post',
@@ -85,7 +85,8 @@ export function ticketRoutes(deps: tickets.TicketDeps) {
       body: logSharpeningInput,
       response: ticketDetail,
       idempotent: true,
-      handle: ({ ctx, params, body }) => tickets.logSharpening(ctx, params.ticketId, body),
+      atomic: true,
+      handle: ({ ctx, scope, params, body }) => tickets.logSharpening(scope, ctx, params.ticketId, body),
     }),
     defineRoute({
       method: 'post',

@@ -81,7 +81,7 @@ export async function promiseFor(ctx: RinkContext, pairs: number, now = new Date
 export async function takeIn(ctx: RinkContext, input: CreateTicketInput): Promise<TicketDetail> {
   const customer = await repo.findCustomer(ctx.tenantId, input.customerId);
   if (!customer) throw AppError.field('customerId', 'No such customer at this rink');
-  const services = await repo.findServices(ctx.tenantId, [...new Set(input.pairs.map((p) => p.serviceId))]);
+  const services = await repo.findServices(scoped(ctx.tenantId), [...new Set(input.pairs.map((p) => p.serviceId))]);
   const profileIds = input.pairs.flatMap((p) => (p.skateProfileId ? [p.skateProfileId] : []));
   const profiles = await repo.findProfiles(ctx.tenantId, customer.id, [...new Set(profileIds)]);
   const fields: Record<string, string[]> = {};
@@ -139,7 +139,7 @@ export async function takeIn(ctx: RinkContext, input: CreateTicketInput): Promis
         }
       : undefined,
   );
-  return describeTicket(ctx, id);
+  return describeTicket(scoped(ctx.tenantId), id);
 }
 
 /** The credit account a ticket's pairs draw from: the skater's own, or a league team's allocation. */
@@ -182,12 +182,9 @@ function toSummary(r: Awaited<ReturnType<typeof repo.listTickets>>[number]): Tic
   };
 }
 
-export async function describeTicket(ctx: RinkContext, ticketId: string): Promise<TicketDetail> {
-  const [summary, { pairs, sharpenings, readings, events }, names] = await Promise.all([
-    repo.findTicketSummary(ctx.tenantId, ticketId),
-    repo.ticketParts(ctx.tenantId, ticketId),
-    repo.stationNames(ctx.tenantId),
-  ]);
+/** The ticket as it stands in `s` (inside a transaction: with that transaction's own writes). */
+export async function describeTicket(s: Scope, ticketId: string): Promise<TicketDetail> {
+  const [summary, { pairs, sharpenings, readings, events }] = await Promise.all([repo.findTicketSummary(s, ticketId), repo.ticketParts(s, ticketId)]);
   if (!summary) throw AppError.notFound(TICKET_NOT_FOUND);
   return {
     ...toSummary(summary),
@@ -208,7 +205,7 @@ export async function describeTicket(ctx: RinkContext, ticketId: string): Promis
     events: events.map((e) => ({
       fromState: e.fromState,
       toState: e.toState,
-      stationName: e.stationId ? (names.get(e.stationId) ?? null) : null,
+      stationName: e.stationName,
       reason: e.reason,
       at: e.at.toISOString(),
       by: e.by,
@@ -228,7 +225,7 @@ async function requireActiveStation(ctx: RinkContext, stationId: string) {
   return activeStation(await repo.findStation(ctx.tenantId, stationId));
 }
 
-function activeStation(found: Awaited<ReturnType<typeof repo.findStation>>) {
+function activeStation<S extends { id: string; name: string; status: string }>(found: S | undefined): S {
   if (!found) throw AppError.field('stationId', 'No such station at this rink');
   if (found.status !== 'active') throw AppError.field('stationId', `${found.name} is not active`);
   return found;
@@ -273,7 +270,7 @@ export async function moveTicket(ctx: RinkContext, ticketId: string, input: Tran
     throw new AppError('conflict', 'The ticket changed meanwhile; look at it again');
   }
   if (input.to === 'ready') await sendReadyNotice(ctx, found.customerId, found.number, deps);
-  return describeTicket(ctx, ticketId);
+  return describeTicket(scoped(ctx.tenantId), ticketId);
 }
 
 async function refundCreditsOf(ctx: RinkContext, ticketId: string, accountId: string) {
@@ -332,28 +329,29 @@ function assertOneReadingPerBlade(readings: ReadingInput[]) {
   if (new Set(blades).size !== blades.length) throw AppError.field('readings', 'One reading per blade; a re-run adds the next one');
 }
 
-export async function logSharpening(ctx: RinkContext, ticketId: string, input: LogSharpeningInput): Promise<TicketDetail> {
-  // The checks read independent rows, so they are asked at once; their answers are weighed in this order.
-  const [found, station, wheel, pairOnTicket, alreadyLogged] = await Promise.all([
-    repo.findTicket(ctx.tenantId, ticketId),
-    repo.findStation(ctx.tenantId, input.stationId),
-    repo.mountedWheel(ctx.tenantId, input.stationId),
-    input.pairId ? repo.findPair(ctx.tenantId, ticketId, input.pairId) : undefined,
-    input.pairId ? repo.originalSharpeningsOfPair(ctx.tenantId, input.pairId) : 0,
-  ]);
-  if (!found) throw AppError.notFound(TICKET_NOT_FOUND);
-  if (found.state !== 'waiting' && found.state !== 'on_station') {
-    throw new AppError('conflict', `The ticket is ${found.state.replace('_', ' ')}: reopen it on a station to log more`);
+/**
+ * Logs a pair, inside the route's transaction (an atomic route: the stored answer commits with it). The ticket's row
+ * lock comes first, so two tablets logging on one ticket take turns: the second sees the first's pair and sharpening
+ * before it decides a new pair's position or whether the named pair is done. Logging at a station puts the ticket on
+ * that station, as the technician would by hand; a refused log rolls back whole and moves nothing.
+ */
+export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string, input: LogSharpeningInput): Promise<TicketDetail> {
+  const open = await repo.lockTicket(s, ticketId);
+  if (!open) throw AppError.notFound(TICKET_NOT_FOUND);
+  if (open.state !== 'waiting' && open.state !== 'on_station') {
+    throw new AppError('conflict', `The ticket is ${open.state.replace('_', ' ')}: reopen it on a station to log more`);
   }
+  const station = await repo.stationWithWheel(s, input.stationId);
   const target = activeStation(station);
   assertOneReadingPerBlade(input.readings);
-  let pairId = input.pairId;
-  let newPair: Parameters<typeof repo.insertSharpening>[1]['newPair'];
+  const now = new Date();
+  let pairId: string;
+  let newPair: Parameters<typeof repo.insertPair>[1] | undefined;
   let newPairIsStandard = false;
   if (input.newPair) {
-    const [service] = await repo.findServices(ctx.tenantId, [input.newPair.serviceId]);
-    newPairIsStandard = service?.kind === 'standard';
+    const [service] = await repo.findServices(s, [input.newPair.serviceId]);
     if (!service || service.active !== 1) throw AppError.field('newPair.serviceId', 'Choose one of the rink’s active services');
+    newPairIsStandard = service.kind === 'standard';
     pairId = randomUUID();
     newPair = {
       id: pairId,
@@ -367,21 +365,26 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
       notes: input.newPair.notes,
     };
   } else {
-    if (!pairId || !pairOnTicket) throw AppError.field('pairId', 'No such pair on this ticket');
-    if (alreadyLogged > 0) throw new AppError('conflict', ALREADY_LOGGED);
+    const pair = input.pairId ? await repo.pairOfTicket(s, ticketId, input.pairId) : undefined;
+    if (!pair) throw AppError.field('pairId', 'No such pair on this ticket');
+    if (pair.logged > 0) throw new AppError('conflict', ALREADY_LOGGED);
+    pairId = pair.id;
   }
-  const now = new Date();
+  if (open.state === 'waiting' || open.stationId !== target.id) await repo.putOnStation(s, open, { stationId: target.id, at: now, byUserId: ctx.userId });
+  if (newPair) {
+    await repo.insertPair(s, newPair);
+    // A batch pair paid by credit draws its credit here, keyed by the pair.
+    if (open.creditAccountId && newPairIsStandard) await redeemForPair(s, ctx, open.creditAccountId, pairId);
+  }
   const sharpeningId = randomUUID();
-  const outcome = await repo.insertSharpening(ctx.tenantId, {
-    ticketId,
-    putOn: { stationId: target.id, at: now, byUserId: ctx.userId },
-    newPair,
-    sharpening: {
+  await repo.insertSharpening(
+    s,
+    {
       id: sharpeningId,
       ticketId,
-      ticketPairId: pairId as string,
+      ticketPairId: pairId,
       stationId: target.id,
-      wheelId: wheel?.id ?? null,
+      wheelId: station?.wheelId ?? null,
       technicianId: ctx.userId,
       hollowNm: input.hollowNm,
       passes: input.passes,
@@ -390,13 +393,9 @@ export async function logSharpening(ctx: RinkContext, ticketId: string, input: L
       correctsId: null,
       correctionReason: null,
     },
-    readings: readingRows(ctx, target.id, sharpeningId, input.bladeWidthNm, input.readings, () => 1, now),
-    withinNewPair: found.creditAccountId && newPairIsStandard ? (tx, id) => redeemForPair(tx, ctx, found.creditAccountId!, id).then(() => undefined) : undefined,
-  });
-  // Another tablet got there first while this request was on its way.
-  if (outcome === 'already_logged') throw new AppError('conflict', ALREADY_LOGGED);
-  if (outcome === 'closed') throw new AppError('conflict', 'The ticket changed meanwhile; look at it again');
-  return describeTicket(ctx, ticketId);
+    readingRows(ctx, target.id, sharpeningId, input.bladeWidthNm, input.readings, () => 1, now),
+  );
+  return describeTicket(s, ticketId);
 }
 
 async function requireSharpening(ctx: RinkContext, sharpeningId: string) {
@@ -412,7 +411,7 @@ export async function addRerunReadings(ctx: RinkContext, sharpeningId: string, r
   const existing = await repo.readingsOf(ctx.tenantId, sharpeningId);
   const nextAttempt = (blade: 'left' | 'right') => Math.max(0, ...existing.filter((r) => r.blade === blade).map((r) => r.attempt)) + 1;
   await repo.insertReadings(ctx.tenantId, readingRows(ctx, found.stationId, sharpeningId, found.bladeWidthNm, readings, nextAttempt, new Date()));
-  return describeTicket(ctx, found.ticketId);
+  return describeTicket(scoped(ctx.tenantId), found.ticketId);
 }
 
 /** A correction is a new record that points at the original; both stay in the history. */
@@ -431,5 +430,5 @@ export async function correctSharpening(ctx: RinkContext, sharpeningId: string, 
     correctionReason: input.reason,
     createdAt: new Date(),
   });
-  return describeTicket(ctx, original.ticketId);
+  return describeTicket(scoped(ctx.tenantId), original.ticketId);
 }

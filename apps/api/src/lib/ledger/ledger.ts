@@ -58,8 +58,11 @@ export const teamAccount = (s: Scope, leagueId: string, teamId: string) =>
 export const poolAccount = (s: Scope, leagueId: string) =>
   repo.ensureAccount(s, { id: randomUUID(), kind: 'league_pool', leagueId }, () => repo.findPoolOfLeague(s, leagueId));
 export const findSkaterAccount = (s: Scope, customerId: string) => repo.findAccountOfCustomer(s, customerId);
-/** Inside a transaction: the customer's account, locked as an operation locks it; undefined when there is none yet. */
-export const lockSkaterAccount = (s: Scope, customerId: string) => repo.lockAccountOfCustomer(s, customerId);
+/**
+ * Inside a transaction: the customer's account, locked as an operation locks it, with its lots read under that lock
+ * (one statement; pass them on as `lockedLots`); undefined when there is none yet.
+ */
+export const lockSkaterAccount = (s: Scope, customerId: string) => repo.lockAccountOfCustomerWithLots(s, customerId);
 export const findTeamAccount = (s: Scope, teamId: string) => repo.findAccountOfTeam(s, teamId);
 export const findPoolAccount = (s: Scope, leagueId: string) => repo.findPoolOfLeague(s, leagueId);
 
@@ -160,8 +163,8 @@ function balanceAfter(lots: repo.LotWithContext[], remainingBefore: Map<string, 
 }
 
 interface OperateOptions {
-  /** The caller's transaction holds the account's lock already. */
-  locked?: boolean;
+  /** The caller's transaction holds the account's lock already, and read these, all the account's lots, under it. */
+  lockedLots?: repo.LotWithContext[];
   /**
    * The caller replays an earlier use of the key itself (an atomic route), so the operation does not look for one:
    * a repeat fails on the entries' unique key, rolls back, and the caller answers with the first one's answer.
@@ -183,7 +186,7 @@ async function operate(
   options: OperateOptions = {},
 ): Promise<Operation> {
   return s.transaction(async (tx) => {
-    if (!options.locked) {
+    if (!options.lockedLots) {
       const account = await repo.lockAccount(tx, accountId);
       if (!account) throw AppError.notFound('No such credit account');
     }
@@ -192,7 +195,7 @@ async function operate(
     if (earlier) {
       return { entries: await repo.entriesOfOperation(tx, earlier.operationId), balance: await usableBalance(tx, accountId, now), replayed: true };
     }
-    const lots = await repo.lotsOf(tx, [accountId]);
+    const lots = options.lockedLots ?? (await repo.lotsOf(tx, [accountId]));
     const remainingBefore = new Map(lots.map((l) => [l.id, l.remaining]));
     const steps = await plan({ lots, now, tx });
     const operationId = randomUUID();
@@ -269,7 +272,7 @@ export function redeem(s: Scope, input: { accountId: string; key: string; actor:
       throw new AppError('insufficient_credits', held ? 'The membership’s payment failed and its grace has run out: its credits are kept, and usable again once it is paid' : 'No credits left on this account');
     }
     return [{ lot, kind: 'redeem', credits: -1 }];
-  }, { locked: input.locked, callerReplays: input.callerReplays });
+  }, { lockedLots: input.lockedLots, callerReplays: input.callerReplays });
 }
 
 /** Takes `credits` from the usable lots, first to expire first (a negative adjustment, or a transfer out). */

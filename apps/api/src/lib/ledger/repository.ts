@@ -61,33 +61,49 @@ export async function lockAccount(s: Scope, accountId: string): Promise<AccountR
   return row;
 }
 
-export async function lockAccountOfCustomer(s: Scope, customerId: string): Promise<AccountRow | undefined> {
-  const [row] = await s.lock(creditAccount, eq(creditAccount.customerId, customerId));
-  return row;
-}
-
 export interface LotWithContext extends LotRecord {
   productName: string | null;
   membershipState: (typeof membership.$inferSelect)['state'] | null;
   membershipGraceUntil: Date | null;
 }
 
+/** A lot's columns, its product's name and its membership's standing (a lot of a blocked membership cannot redeem). */
+function lotFields() {
+  return {
+    ...columnsOf(creditLot),
+    productName: sql<string | null>`(select ${product.name} from ${product} where ${product.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${product.id} = ${qualified(creditLot, creditLot.productId)})`,
+    membershipState: sql<LotWithContext['membershipState']>`(select ${membership.state} from ${membership} where ${membership.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${membership.id} = ${qualified(creditLot, creditLot.membershipId)})`,
+    membershipGraceUntil: sql<Date | null>`(select ${membership.graceUntil} from ${membership} where ${membership.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${membership.id} = ${qualified(creditLot, creditLot.membershipId)})`.mapWith(
+      (v: string | Date | null) => (v === null ? null : v instanceof Date ? v : new Date(`${v.replace(' ', 'T')}Z`)),
+    ),
+  };
+}
+
+const LOT_ORDER = [asc(creditLot.createdAt), asc(creditLot.id)];
+
 export function lotsOf(s: Scope, accountIds: string[], options: { liveOnly?: boolean } = {}): Promise<LotWithContext[]> {
   if (accountIds.length === 0) return Promise.resolve([]);
   const where = and(inArray(creditLot.accountId, accountIds), options.liveOnly ? gt(creditLot.remaining, 0) : undefined);
-  return s.findJoined(creditLot, {
-    fields: {
-      ...columnsOf(creditLot),
-      productName: sql<string | null>`(select ${product.name} from ${product} where ${product.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${product.id} = ${qualified(creditLot, creditLot.productId)})`,
-      membershipState: sql<LotWithContext['membershipState']>`(select ${membership.state} from ${membership} where ${membership.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${membership.id} = ${qualified(creditLot, creditLot.membershipId)})`,
-      membershipGraceUntil: sql<Date | null>`(select ${membership.graceUntil} from ${membership} where ${membership.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${membership.id} = ${qualified(creditLot, creditLot.membershipId)})`.mapWith(
-        (v: string | Date | null) => (v === null ? null : v instanceof Date ? v : new Date(`${v.replace(' ', 'T')}Z`)),
-      ),
-    },
-    joins: [],
-    where,
-    orderBy: [asc(creditLot.createdAt), asc(creditLot.id)],
-  }) as Promise<LotWithContext[]>;
+  return s.findJoined(creditLot, { fields: lotFields(), joins: [], where, orderBy: LOT_ORDER }) as Promise<LotWithContext[]>;
+}
+
+/**
+ * The customer's account and all its lots in one locking read: the account row is locked (every change to its lots
+ * waits on it), and so are the lots. Undefined when the customer has no account yet.
+ */
+export async function lockAccountOfCustomerWithLots(s: Scope, customerId: string): Promise<{ account: { id: string }; lots: LotWithContext[] } | undefined> {
+  const rows = await s.findJoined(creditAccount, {
+    fields: { ...lotFields(), lockedAccountId: creditAccount.id },
+    joins: [{ table: creditLot, on: eq(creditLot.accountId, creditAccount.id), left: true }],
+    where: eq(creditAccount.customerId, customerId),
+    orderBy: LOT_ORDER,
+    lock: true,
+  });
+  const [first] = rows;
+  if (!first) return undefined;
+  // A left join gives an account without lots one row whose lot columns are all null.
+  const lots = rows.filter((r) => r.id !== null).map(({ lockedAccountId: _account, ...lot }) => lot as LotWithContext);
+  return { account: { id: first.lockedAccountId }, lots };
 }
 
 function columnsOf(table: typeof creditLot) {
