@@ -5,7 +5,7 @@ import { connectDb, currentDb, disconnectDb } from './client';
 import { dbEnv } from './env';
 import { addMember, createCustomer, createRink, createUser } from './factories';
 import { customer, member, rink, user } from './schema/index';
-import { qualified, scoped } from './scope';
+import { preparedJoined, qualified, scoped } from './scope';
 
 // Two rinks that share one person (staff at both), each with customers: every scope operation of rink A
 // must act on A's rows alone, even when its condition names B's rows.
@@ -159,6 +159,47 @@ describe('scoped(tenantId)', () => {
     expect((await scoped(w.a.id).rink())?.name).toBe('Ice Harbor Renamed');
     const [rinkB] = await currentDb().select().from(rink).where(eq(rink.id, w.b.id));
     expect(rinkB?.name).toBe('North Pond Arena');
+  });
+
+  it('left joins keep the row with null fields, and a lock reads inside the transaction', async () => {
+    const w = await twoRinks();
+    const unlinked = await createCustomer(currentDb(), w.a.id, { name: 'Walk-up at A' });
+    const rows = await scoped(w.a.id).transaction((tx) =>
+      tx.findJoined(customer, {
+        fields: { id: customer.id, email: user.email },
+        joins: [{ table: user, on: eq(user.id, customer.userId), left: true }],
+        orderBy: asc(customer.name),
+        lock: true,
+      }),
+    );
+    expect(rows).toEqual([
+      { id: w.customerA.id, email: w.shared.email },
+      { id: unlinked.id, email: null },
+    ]);
+  });
+
+  it('a prepared select runs with each scope’s tenant, and inside a transaction on its connection', async () => {
+    const w = await twoRinks();
+    // One statement for every rink: the tenant is a placeholder the scope fills, in the main table and the joined one.
+    const membersNamed = preparedJoined(customer, ['name'], (value) => ({
+      fields: { customerId: customer.id, role: member.role },
+      joins: [{ table: member, on: eq(member.userId, customer.userId) }],
+      where: eq(customer.name, value('name')),
+    }));
+
+    expect(await scoped(w.a.id).run(membersNamed, { name: 'Skater at A' })).toEqual([{ customerId: w.customerA.id, role: 'technician' }]);
+    expect(await scoped(w.b.id).run(membersNamed, { name: 'Skater at A' })).toEqual([]);
+    expect(await scoped(w.b.id).run(membersNamed, { name: 'Skater at B' })).toEqual([{ customerId: w.customerB.id, role: 'manager' }]);
+
+    // Inside a transaction it sees the transaction's own write, which nobody outside sees until the commit.
+    const renamed = await scoped(w.b.id).transaction(async (tx) => {
+      await tx.update(customer, { name: 'Renamed at B' }, eq(customer.id, w.customerB.id));
+      const inside = await tx.run(membersNamed, { name: 'Renamed at B' });
+      const outside = await scoped(w.b.id).run(membersNamed, { name: 'Renamed at B' });
+      return { inside, outside };
+    });
+    expect(renamed.inside).toEqual([{ customerId: w.customerB.id, role: 'manager' }]);
+    expect(renamed.outside).toEqual([]);
   });
 
   it('a scope bound to a transaction keeps its filter', async () => {

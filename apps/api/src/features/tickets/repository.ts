@@ -4,6 +4,7 @@ import {
   customer,
   isDuplicateKey,
   levelReading,
+  preparedJoined,
   qualified,
   scoped,
   serviceItem,
@@ -26,14 +27,16 @@ type NewReading = Omit<typeof levelReading.$inferInsert, 'tenantId'>;
 
 export const findStation = (tenantId: string, stationId: string) => scoped(tenantId).findOne(station, eq(station.id, stationId));
 
+const stationAndWheel = preparedJoined(station, ['stationId'], (value) => ({
+  fields: { id: station.id, name: station.name, status: station.status, wheelId: wheel.id },
+  joins: [{ table: wheel, on: and(eq(wheel.stationId, station.id), isNull(wheel.removedAt))!, left: true }],
+  where: eq(station.id, value('stationId')),
+  limit: 1,
+}));
+
 /** The station and the wheel mounted on it (`wheelId` null when none), in one read. */
 export async function stationWithWheel(s: Scope, stationId: string) {
-  const [row] = await s.findJoined(station, {
-    fields: { id: station.id, name: station.name, status: station.status, wheelId: wheel.id },
-    joins: [{ table: wheel, on: and(eq(wheel.stationId, station.id), isNull(wheel.removedAt))!, left: true }],
-    where: eq(station.id, stationId),
-    limit: 1,
-  });
+  const [row] = await s.run(stationAndWheel, { stationId });
   return row;
 }
 export const activeStations = (tenantId: string) => scoped(tenantId).find(station, { where: eq(station.status, 'active'), orderBy: asc(station.name) });
@@ -86,106 +89,128 @@ function summaryFields() {
   };
 }
 
-export function listTickets(tenantId: string, filter: { states: TicketState[]; stationId?: string | undefined; customerId?: string | undefined }) {
-  return scoped(tenantId).findJoined(ticket, {
+function ticketList(shape: { states: TicketState[]; byStation: boolean; byCustomer: boolean }) {
+  return preparedJoined(ticket, ['stationId', 'customerId'], (value) => ({
     fields: summaryFields(),
     joins: [{ table: customer, on: eq(customer.id, ticket.customerId) }],
     where: and(
-      inArray(ticket.state, filter.states),
-      filter.stationId ? eq(ticket.stationId, filter.stationId) : undefined,
-      filter.customerId ? eq(ticket.customerId, filter.customerId) : undefined,
+      inArray(ticket.state, shape.states),
+      shape.byStation ? eq(ticket.stationId, value('stationId')) : undefined,
+      shape.byCustomer ? eq(ticket.customerId, value('customerId')) : undefined,
     ),
-    orderBy: filter.states.includes('collected') ? [desc(ticket.droppedAt)] : [asc(ticket.promisedAt), asc(ticket.number)],
+    orderBy: shape.states.includes('collected') ? [desc(ticket.droppedAt)] : [asc(ticket.promisedAt), asc(ticket.number)],
     limit: 200,
-  });
+  }));
 }
+
+/** One prepared list per shape of filter (the queue board polls the open one). */
+const ticketLists = new Map<string, ReturnType<typeof ticketList>>();
+
+export function listTickets(tenantId: string, filter: { states: TicketState[]; stationId?: string | undefined; customerId?: string | undefined }) {
+  const shape = { states: [...filter.states].sort(), byStation: filter.stationId !== undefined, byCustomer: filter.customerId !== undefined };
+  const key = JSON.stringify(shape);
+  let list = ticketLists.get(key);
+  if (!list) ticketLists.set(key, (list = ticketList(shape)));
+  return scoped(tenantId).run(list, { stationId: filter.stationId ?? null, customerId: filter.customerId ?? null });
+}
+
+const ticketSummary = preparedJoined(ticket, ['ticketId'], (value) => ({
+  fields: { ...summaryFields(), notes: ticket.notes, voidReason: ticket.voidReason },
+  joins: [{ table: customer, on: eq(customer.id, ticket.customerId) }],
+  where: eq(ticket.id, value('ticketId')),
+}));
 
 /** One ticket's summary with its notes, in whatever state it is. */
 export async function findTicketSummary(s: Scope, ticketId: string) {
-  const [row] = await s.findJoined(ticket, {
-    fields: { ...summaryFields(), notes: ticket.notes, voidReason: ticket.voidReason },
-    joins: [{ table: customer, on: eq(customer.id, ticket.customerId) }],
-    where: eq(ticket.id, ticketId),
-  });
+  const [row] = await s.run(ticketSummary, { ticketId });
   return row;
 }
 
-export async function ticketParts(scope: Scope, ticketId: string) {
+const pairsOfTicket = preparedJoined(ticketPair, ['ticketId'], (value) => ({
+  fields: {
+    id: ticketPair.id,
+    position: ticketPair.position,
+    label: ticketPair.label,
+    skateProfileId: ticketPair.skateProfileId,
+    bladeWidthNm: ticketPair.bladeWidthNm,
+    hollowNm: ticketPair.hollowNm,
+    serviceId: ticketPair.serviceId,
+    serviceName: serviceItem.name,
+    priceMinor: ticketPair.priceMinor,
+    notes: ticketPair.notes,
+  },
+  joins: [{ table: serviceItem, on: eq(serviceItem.id, ticketPair.serviceId) }],
+  where: eq(ticketPair.ticketId, value('ticketId')),
+  orderBy: asc(ticketPair.position),
+}));
+
+const sharpeningsOfTicket = preparedJoined(sharpening, ['ticketId'], (value) => ({
+  fields: {
+    id: sharpening.id,
+    ticketPairId: sharpening.ticketPairId,
+    stationId: sharpening.stationId,
+    stationName: station.name,
+    wheelId: sharpening.wheelId,
+    technician: user.name,
+    hollowNm: sharpening.hollowNm,
+    passes: sharpening.passes,
+    bladeWidthNm: sharpening.bladeWidthNm,
+    doneAt: sharpening.doneAt,
+    correctsId: sharpening.correctsId,
+    correctionReason: sharpening.correctionReason,
+  },
+  joins: [
+    { table: station, on: eq(station.id, sharpening.stationId) },
+    { table: user, on: eq(user.id, sharpening.technicianId) },
+  ],
+  where: eq(sharpening.ticketId, value('ticketId')),
+  orderBy: [asc(sharpening.createdAt), asc(sharpening.id)],
+}));
+
+const readingsOfTicket = preparedJoined(levelReading, ['ticketId'], (value) => ({
+  fields: {
+    id: levelReading.id,
+    sharpeningId: levelReading.sharpeningId,
+    blade: levelReading.blade,
+    attempt: levelReading.attempt,
+    readingNm: levelReading.readingNm,
+    tiltMillideg: levelReading.tiltMillideg,
+    takenAt: levelReading.takenAt,
+    takenBy: user.name,
+  },
+  joins: [
+    { table: sharpening, on: eq(sharpening.id, levelReading.sharpeningId) },
+    { table: user, on: eq(user.id, levelReading.takenBy) },
+  ],
+  where: eq(sharpening.ticketId, value('ticketId')),
+  orderBy: [asc(levelReading.blade), asc(levelReading.attempt)],
+}));
+
+const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
+  fields: {
+    fromState: ticketEvent.fromState,
+    toState: ticketEvent.toState,
+    stationId: ticketEvent.stationId,
+    stationName: station.name,
+    reason: ticketEvent.reason,
+    at: ticketEvent.at,
+    by: user.name,
+  },
+  joins: [
+    { table: user, on: eq(user.id, ticketEvent.byUserId) },
+    { table: station, on: eq(station.id, ticketEvent.stationId), left: true },
+  ],
+  where: eq(ticketEvent.ticketId, value('ticketId')),
+  orderBy: [asc(ticketEvent.at), asc(ticketEvent.id)],
+}));
+
+/** A ticket's pairs, sharpenings, readings and history; every ticket page and every counter write answers with them. */
+export async function ticketParts(s: Scope, ticketId: string) {
   const [pairs, sharpenings, readings, events] = await Promise.all([
-    scope.findJoined(ticketPair, {
-      fields: {
-        id: ticketPair.id,
-        position: ticketPair.position,
-        label: ticketPair.label,
-        skateProfileId: ticketPair.skateProfileId,
-        bladeWidthNm: ticketPair.bladeWidthNm,
-        hollowNm: ticketPair.hollowNm,
-        serviceId: ticketPair.serviceId,
-        serviceName: serviceItem.name,
-        priceMinor: ticketPair.priceMinor,
-        notes: ticketPair.notes,
-      },
-      joins: [{ table: serviceItem, on: eq(serviceItem.id, ticketPair.serviceId) }],
-      where: eq(ticketPair.ticketId, ticketId),
-      orderBy: asc(ticketPair.position),
-    }),
-    scope.findJoined(sharpening, {
-      fields: {
-        id: sharpening.id,
-        ticketPairId: sharpening.ticketPairId,
-        stationId: sharpening.stationId,
-        stationName: station.name,
-        wheelId: sharpening.wheelId,
-        technician: user.name,
-        hollowNm: sharpening.hollowNm,
-        passes: sharpening.passes,
-        bladeWidthNm: sharpening.bladeWidthNm,
-        doneAt: sharpening.doneAt,
-        correctsId: sharpening.correctsId,
-        correctionReason: sharpening.correctionReason,
-      },
-      joins: [
-        { table: station, on: eq(station.id, sharpening.stationId) },
-        { table: user, on: eq(user.id, sharpening.technicianId) },
-      ],
-      where: eq(sharpening.ticketId, ticketId),
-      orderBy: [asc(sharpening.createdAt), asc(sharpening.id)],
-    }),
-    scope.findJoined(levelReading, {
-      fields: {
-        id: levelReading.id,
-        sharpeningId: levelReading.sharpeningId,
-        blade: levelReading.blade,
-        attempt: levelReading.attempt,
-        readingNm: levelReading.readingNm,
-        tiltMillideg: levelReading.tiltMillideg,
-        takenAt: levelReading.takenAt,
-        takenBy: user.name,
-      },
-      joins: [
-        { table: sharpening, on: eq(sharpening.id, levelReading.sharpeningId) },
-        { table: user, on: eq(user.id, levelReading.takenBy) },
-      ],
-      where: eq(sharpening.ticketId, ticketId),
-      orderBy: [asc(levelReading.blade), asc(levelReading.attempt)],
-    }),
-    scope.findJoined(ticketEvent, {
-      fields: {
-        fromState: ticketEvent.fromState,
-        toState: ticketEvent.toState,
-        stationId: ticketEvent.stationId,
-        stationName: station.name,
-        reason: ticketEvent.reason,
-        at: ticketEvent.at,
-        by: user.name,
-      },
-      joins: [
-        { table: user, on: eq(user.id, ticketEvent.byUserId) },
-        { table: station, on: eq(station.id, ticketEvent.stationId), left: true },
-      ],
-      where: eq(ticketEvent.ticketId, ticketId),
-      orderBy: [asc(ticketEvent.at), asc(ticketEvent.id)],
-    }),
+    s.run(pairsOfTicket, { ticketId }),
+    s.run(sharpeningsOfTicket, { ticketId }),
+    s.run(readingsOfTicket, { ticketId }),
+    s.run(eventsOfTicket, { ticketId }),
   ]);
   return { pairs, sharpenings, readings, events };
 }
@@ -208,10 +233,18 @@ export async function moveTicket(
   });
 }
 
+const pairAndCount = preparedJoined(ticketPair, ['pairId', 'ticketId'], (value) => ({
+  fields: {
+    id: ticketPair.id,
+    logged: sql<number>`(select count(*) from ${sharpening} where ${sharpening.tenantId} = ${qualified(ticketPair, ticketPair.tenantId)} and ${sharpening.ticketPairId} = ${qualified(ticketPair, ticketPair.id)} and ${sharpening.correctsId} is null)`.mapWith(Number),
+  },
+  joins: [],
+  where: and(eq(ticketPair.id, value('pairId')), eq(ticketPair.ticketId, value('ticketId'))),
+}));
+
 /** A pair of the ticket, with how many original (not correcting) sharpenings it has, in one read. */
 export async function pairOfTicket(s: Scope, ticketId: string, pairId: string) {
-  const logged = sql<number>`(select count(*) from ${sharpening} where ${sharpening.tenantId} = ${qualified(ticketPair, ticketPair.tenantId)} and ${sharpening.ticketPairId} = ${qualified(ticketPair, ticketPair.id)} and ${sharpening.correctsId} is null)`.mapWith(Number);
-  const [row] = await s.findJoined(ticketPair, { fields: { id: ticketPair.id, logged }, joins: [], where: and(eq(ticketPair.id, pairId), eq(ticketPair.ticketId, ticketId)) });
+  const [row] = await s.run(pairAndCount, { pairId, ticketId });
   return row;
 }
 

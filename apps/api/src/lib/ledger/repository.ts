@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, lte, or, sql } from 'drizzle-orm';
-import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, product, qualified, user, type Scope } from '@rinkwright/db';
+import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, preparedJoined, product, qualified, user, type Scope } from '@rinkwright/db';
 
 // The ledger's queries. Every function takes the caller's scope, usually a transaction's, so that a whole
 // operation (lock, read lots, write entries, move `remaining`) commits or rolls back as one.
@@ -87,18 +87,21 @@ export function lotsOf(s: Scope, accountIds: string[], options: { liveOnly?: boo
   return s.findJoined(creditLot, { fields: lotFields(), joins: [], where, orderBy: LOT_ORDER }) as Promise<LotWithContext[]>;
 }
 
+// Every redemption starts with this read, so it is built once (preparedJoined).
+const accountWithLots = preparedJoined(creditAccount, ['customerId'], (value) => ({
+  fields: { ...lotFields(), lockedAccountId: creditAccount.id },
+  joins: [{ table: creditLot, on: eq(creditLot.accountId, creditAccount.id), left: true }],
+  where: eq(creditAccount.customerId, value('customerId')),
+  orderBy: LOT_ORDER,
+  lock: true,
+}));
+
 /**
  * The customer's account and all its lots in one locking read: the account row is locked (every change to its lots
  * waits on it), and so are the lots. Undefined when the customer has no account yet.
  */
 export async function lockAccountOfCustomerWithLots(s: Scope, customerId: string): Promise<{ account: { id: string }; lots: LotWithContext[] } | undefined> {
-  const rows = await s.findJoined(creditAccount, {
-    fields: { ...lotFields(), lockedAccountId: creditAccount.id },
-    joins: [{ table: creditLot, on: eq(creditLot.accountId, creditAccount.id), left: true }],
-    where: eq(creditAccount.customerId, customerId),
-    orderBy: LOT_ORDER,
-    lock: true,
-  });
+  const rows = await s.run(accountWithLots, { customerId });
   const [first] = rows;
   if (!first) return undefined;
   // A left join gives an account without lots one row whose lot columns are all null.
