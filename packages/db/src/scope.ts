@@ -148,13 +148,17 @@ function clientOf(executor: Executor): unknown {
 export function preparedJoined<F extends Fields, const N extends string>(
   table: MySqlTable,
   names: readonly N[],
-  build: (value: (name: N) => Placeholder) => JoinedOptions<F>,
+  /** `filter` is the scope's own (the tenant condition on a table, and `where`), for a subquery's tables. */
+  build: (value: (name: N) => Placeholder, filter: Scope['filter']) => JoinedOptions<F>,
 ): PreparedJoined<F, N> {
   if ((names as readonly string[]).includes(TENANT)) throw new Error(`${TENANT} is the tenant's placeholder`);
   let built: PreparedSelect | undefined;
   return {
     query() {
-      built ??= queriesOf(sql.placeholder(TENANT), currentDb).joined(table, build((name) => sql.placeholder(name))).prepare();
+      if (!built) {
+        const template = queriesOf(sql.placeholder(TENANT), currentDb);
+        built = template.joined(table, build((name) => sql.placeholder(name), template.filter)).prepare();
+      }
       return built;
     },
   };

@@ -1,5 +1,5 @@
-import { and, asc, desc, eq, like, or, sql } from 'drizzle-orm';
-import { customer, customerSearch, scoped, SEARCH_TERM_LENGTH, skateProfile, ticket } from '@rinkwright/db';
+import { and, asc, desc, eq, getTableColumns, like, or, sql } from 'drizzle-orm';
+import { customer, customerSearch, preparedJoined, scoped, SEARCH_TERM_LENGTH, skateProfile, ticket } from '@rinkwright/db';
 
 const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
 
@@ -8,25 +8,44 @@ const escapeLike = (s: string) => s.replace(/[\\%_]/g, (c) => `\\${c}`);
  * index narrows the rink's customers to those with a term starting with the text (or its digits) in one index
  * range; the full comparison then runs on those few.
  */
-export function searchCustomers(tenantId: string, q: string, limit = 25) {
+const recentCustomers = preparedJoined(customer, [], () => ({ fields: getTableColumns(customer), joins: [], orderBy: desc(customer.createdAt), limit: 25 }));
+
+/** The search's select, with or without the phone's digits (a text of three digits or more). */
+const matchingCustomers = (byDigits: boolean) =>
+  preparedJoined(customer, ['textStart', 'digitsStart', 'text', 'code', 'digits'], (value, filter) => {
+    const phoneDigits = sql`regexp_replace(${customer.phone}, '[^0-9]', '')`;
+    const indexed = filter(customerSearch, or(like(customerSearch.term, value('textStart')), byDigits ? like(customerSearch.term, value('digitsStart')) : undefined));
+    return {
+      fields: getTableColumns(customer),
+      joins: [],
+      where: and(
+        sql`${customer.id} in (select ${customerSearch.customerId} from ${customerSearch} where ${indexed})`,
+        or(
+          like(customer.name, value('text')),
+          like(customer.email, value('text')),
+          eq(customer.memberCode, value('code')),
+          // Phones are stored as they were typed ("(555) 013-4477"), so both sides are compared as digits only.
+          byDigits ? like(phoneDigits, value('digits')) : undefined,
+        ),
+      ),
+      orderBy: asc(customer.name),
+      limit: 25,
+    };
+  });
+const searches = { text: matchingCustomers(false), textAndDigits: matchingCustomers(true) };
+
+export function searchCustomers(tenantId: string, q: string) {
   const scope = scoped(tenantId);
-  if (!q) return scope.find(customer, { orderBy: desc(customer.createdAt), limit });
-  const text = `%${escapeLike(q)}%`;
+  if (!q) return scope.run(recentCustomers, {});
   const digits = q.replace(/\D/g, '');
-  const phoneDigits = sql`regexp_replace(${customer.phone}, '[^0-9]', '')`;
-  const starts = (part: string) => like(customerSearch.term, `${escapeLike(part.toLowerCase().slice(0, SEARCH_TERM_LENGTH))}%`);
-  const indexed = scope.filter(customerSearch, or(starts(q), digits.length >= 3 ? starts(digits) : undefined));
-  const where = and(
-    sql`${customer.id} in (select ${customerSearch.customerId} from ${customerSearch} where ${indexed})`,
-    or(
-      like(customer.name, text),
-      like(customer.email, text),
-      eq(customer.memberCode, q.toUpperCase()),
-      // Phones are stored as they were typed ("(555) 013-4477"), so both sides are compared as digits only.
-      digits.length >= 3 ? like(phoneDigits, `%${digits}%`) : undefined,
-    ),
-  );
-  return scope.find(customer, { where, orderBy: asc(customer.name), limit });
+  const start = (part: string) => `${escapeLike(part.toLowerCase().slice(0, SEARCH_TERM_LENGTH))}%`;
+  return scope.run(digits.length >= 3 ? searches.textAndDigits : searches.text, {
+    textStart: start(q),
+    digitsStart: start(digits),
+    text: `%${escapeLike(q)}%`,
+    code: q.toUpperCase(),
+    digits: `%${digits}%`,
+  });
 }
 
 export const findCustomer = (tenantId: string, customerId: string) => scoped(tenantId).findOne(customer, eq(customer.id, customerId));
