@@ -92,7 +92,7 @@ const accountWithLots = preparedJoined(creditAccount, ['customerId'], (value) =>
   fields: { ...lotFields(), lockedAccountId: creditAccount.id },
   joins: [{ table: creditLot, on: eq(creditLot.accountId, creditAccount.id), left: true }],
   where: eq(creditAccount.customerId, value('customerId')),
-  orderBy: LOT_ORDER,
+  // Ordered here, not in SQL: ordering by the joined table would cost a temporary table on every redemption.
   lock: true,
 }));
 
@@ -105,7 +105,10 @@ export async function lockAccountOfCustomerWithLots(s: Scope, customerId: string
   const [first] = rows;
   if (!first) return undefined;
   // A left join gives an account without lots one row whose lot columns are all null.
-  const lots = rows.filter((r) => r.id !== null).map(({ lockedAccountId: _account, ...lot }) => lot as LotWithContext);
+  const lots = rows
+    .filter((r) => r.id !== null)
+    .map(({ lockedAccountId: _account, ...lot }) => lot as LotWithContext)
+    .sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime() || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   return { account: { id: first.lockedAccountId }, lots };
 }
 
