@@ -5,7 +5,7 @@ import { connectDb, currentDb, disconnectDb } from './client';
 import { dbEnv } from './env';
 import { addMember, createCustomer, createRink, createUser } from './factories';
 import { customer, member, rink, user } from './schema/index';
-import { preparedJoined, qualified, scoped } from './scope';
+import { preparedInsert, preparedJoined, preparedUpdate, qualified, scoped } from './scope';
 
 // Two rinks that share one person (staff at both), each with customers: every scope operation of rink A
 // must act on A's rows alone, even when its condition names B's rows.
@@ -200,6 +200,32 @@ describe('scoped(tenantId)', () => {
     });
     expect(renamed.inside).toEqual([{ customerId: w.customerB.id, role: 'manager' }]);
     expect(renamed.outside).toEqual([]);
+  });
+
+  it('a prepared insert sets the scope’s tenant and makes a JS default at each insert', async () => {
+    const w = await twoRinks();
+    const insertNamed = preparedInsert(customer, ['id', 'name', 'memberCode']);
+    const [first, second] = [randomUUID(), randomUUID()];
+
+    await scoped(w.a.id).insertOne(insertNamed, { id: first, name: 'Prepared one', memberCode: `P1${first.slice(0, 6)}`, tenantId: w.b.id } as { id: string; name: string; memberCode: string });
+    await new Promise((resolve) => setTimeout(resolve, 5));
+    await scoped(w.a.id).transaction((tx) => tx.insertOne(insertNamed, { id: second, name: 'Prepared two', memberCode: `P2${second.slice(0, 6)}` }));
+
+    const made = (await customersOf(w.a.id)).filter((c) => c.id === first || c.id === second);
+    expect(made.map((c) => c.name).sort()).toEqual(['Prepared one', 'Prepared two']);
+    // created_at comes from the column's $defaultFn, made at each insert rather than once when the statement was built.
+    expect(new Set(made.map((c) => c.createdAt.getTime())).size).toBe(2);
+    expect((await customersOf(w.b.id)).some((c) => c.id === first)).toBe(false);
+  });
+
+  it('a prepared update changes the scope’s rows only', async () => {
+    const w = await twoRinks();
+    const rename = preparedUpdate(customer, ['id', 'name'], (value) => ({ set: { name: sql`${value('name')}` }, where: eq(customer.id, value('id')) }));
+
+    expect(await scoped(w.a.id).runUpdate(rename, { id: w.customerB.id, name: 'Renamed from A' })).toBe(0);
+    expect(await scoped(w.b.id).runUpdate(rename, { id: w.customerB.id, name: 'Renamed at B' })).toBe(1);
+    expect((await customersOf(w.b.id)).map((c) => c.name).sort()).toEqual(['Another at B', 'Renamed at B']);
+    expect(() => preparedUpdate(user, [], () => ({ set: { name: 'x' }, where: sql`true` })).query()).toThrow(/updated in JS/);
   });
 
   it('a scope bound to a transaction keeps its filter', async () => {

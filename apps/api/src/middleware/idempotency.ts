@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { Request } from 'express';
 import { eq } from 'drizzle-orm';
-import { idempotencyKey, isDuplicateKey, scoped, type Scope } from '@rinkwright/db';
+import { idempotencyKey, isDuplicateKey, preparedInsert, scoped, type Scope } from '@rinkwright/db';
 import { AppError } from '../http/errors';
 
 // Every write from the counter carries a key the client made. The first request with a key claims it (an
@@ -27,6 +27,9 @@ export function requestHash(route: string, params: unknown, body: unknown): stri
 }
 
 type KeyRow = typeof idempotencyKey.$inferSelect;
+
+/** Every atomic write ends with this insert, so it is built once. */
+const answerInsert = preparedInsert(idempotencyKey, ['key', 'route', 'requestHash', 'statusCode', 'responseBody']);
 
 /** The answer stored for a key that is already taken, or why it cannot be replayed. */
 function replayOf(first: KeyRow, route: string, hash: string): StoredAnswer {
@@ -68,7 +71,7 @@ export async function once(
     try {
       return await scope.transaction(async (tx) => {
         const answer = await work(tx);
-        await tx.insert(idempotencyKey, { ...claimed, ...stored(answer) });
+        await tx.insertOne(answerInsert, { ...claimed, ...stored(answer) });
         return answer;
       });
     } catch (error) {

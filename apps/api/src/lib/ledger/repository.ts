@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, lte, or, sql } from 'drizzle-orm';
-import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, preparedJoined, product, qualified, user, type Scope } from '@rinkwright/db';
+import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, preparedInsert, preparedJoined, preparedUpdate, product, qualified, user, type Scope } from '@rinkwright/db';
 
 // The ledger's queries. Every function takes the caller's scope, usually a transaction's, so that a whole
 // operation (lock, read lots, write entries, move `remaining`) commits or rolls back as one.
@@ -7,7 +7,6 @@ import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, prep
 export type AccountRow = typeof creditAccount.$inferSelect;
 export type LotRecord = typeof creditLot.$inferSelect;
 export type EntryRecord = typeof creditEntry.$inferSelect;
-export type NewEntry = Omit<typeof creditEntry.$inferInsert, 'tenantId'>;
 export type NewLot = Omit<typeof creditLot.$inferInsert, 'tenantId'>;
 
 export const findAccountOfCustomer = (s: Scope, customerId: string) => s.findOne(creditAccount, eq(creditAccount.customerId, customerId));
@@ -118,12 +117,34 @@ function columnsOf(table: typeof creditLot) {
 }
 
 export const insertLot = (s: Scope, row: NewLot) => s.insert(creditLot, row);
-export const insertEntries = (s: Scope, rows: NewEntry[]) => s.insert(creditEntry, rows);
+// A redemption writes one entry and moves one lot; both statements are built once.
+const entryInsert = preparedInsert(creditEntry, [
+  'id',
+  'accountId',
+  'lotId',
+  'kind',
+  'credits',
+  'valueMinor',
+  'source',
+  'sourceId',
+  'reason',
+  'reversesId',
+  'operationId',
+  'idemKey',
+  'actorUserId',
+  'createdAt',
+]);
+const remainingMove = preparedUpdate(creditLot, ['lotId', 'delta'], (value) => ({
+  set: { remaining: sql`${creditLot.remaining} + ${value('delta')}` },
+  where: and(eq(creditLot.id, value('lotId')), sql`${creditLot.remaining} + ${value('delta')} >= 0`)!,
+}));
+
+/** One entry with the prepared insert (a redemption); more in one multi-row statement. */
+export const insertEntries = (s: Scope, rows: EntryRecord[]) => (rows.length === 1 ? s.insertOne(entryInsert, rows[0]!) : s.insert(creditEntry, rows));
 
 /** Moves a lot's running total by delta; refuses (0 rows) to take it below zero. */
 export async function moveRemaining(s: Scope, lotId: string, delta: number): Promise<boolean> {
-  const changed = await s.update(creditLot, { remaining: sql`${creditLot.remaining} + ${delta}` }, and(eq(creditLot.id, lotId), sql`${creditLot.remaining} + ${delta} >= 0`)!);
-  return changed === 1;
+  return (await s.runUpdate(remainingMove, { lotId, delta })) === 1;
 }
 
 export const findEntryByKey = (s: Scope, key: string) => s.findOne(creditEntry, eq(creditEntry.idemKey, key));
