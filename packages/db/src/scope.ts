@@ -44,25 +44,25 @@ interface Chain extends PromiseLike<unknown[]> {
   innerJoin(table: MySqlTable, on: SQL): Chain;
   leftJoin(table: MySqlTable, on: SQL): Chain;
   for(strength: 'update'): Chain;
-  prepare(): PreparedSelect;
+  prepare(): PreparedStatement;
   orderBy(...order: (SQL | AnyMySqlColumn)[]): Chain;
   groupBy(...columns: (SQL | AnyMySqlColumn)[]): Chain;
   limit(n: number): Chain;
   offset(n: number): Chain;
 }
 
-/** Drizzle's prepared query as this module uses it: `client` is the mysql2 pool or connection it runs on. */
-interface PreparedSelect {
+/** Drizzle's prepared statement as this module uses it: `client` is the mysql2 pool or connection it runs on. */
+interface PreparedStatement {
   client: unknown;
   execute(values: Record<string, unknown>): Promise<unknown[]>;
 }
 
-/** A value a prepared select is run with. */
+/** A value a prepared statement is run with. */
 type Value = string | number | boolean | Date | null;
 
 /** A select built once, run in any scope: see `preparedJoined`. */
 export interface PreparedJoined<F extends Fields, N extends string> {
-  readonly query: () => PreparedSelect;
+  readonly query: () => PreparedStatement;
   readonly _types?: { fields: F; names: N };
 }
 
@@ -70,13 +70,13 @@ type JoinedOptions<F extends Fields> = FindOptions & { fields: F; joins: Join[];
 
 /** A one-row insert built once, run in any scope: see `preparedInsert`. */
 export interface PreparedInsert<T extends MySqlTable, K extends string> {
-  readonly query: () => { statement: PreparedSelect; defaults: [string, () => unknown][] };
+  readonly query: () => { statement: PreparedStatement; defaults: [string, () => unknown][] };
   readonly _types?: { table: T; columns: K };
 }
 
 /** An update built once, run in any scope: see `preparedUpdate`. */
 export interface PreparedUpdate<N extends string> {
-  readonly query: () => PreparedSelect;
+  readonly query: () => PreparedStatement;
   readonly _types?: { names: N };
 }
 
@@ -155,6 +155,13 @@ function clientOf(executor: Executor): unknown {
   return client;
 }
 
+/** Builds a statement on its first use (the pool exists by then) and keeps it; refuses a value named like the tenant's. */
+function builtOnce<R>(names: readonly string[], build: () => R): () => R {
+  if (names.includes(TENANT)) throw new Error(`${TENANT} is the tenant's placeholder`);
+  let built: R | undefined;
+  return () => (built ??= build());
+}
+
 /**
  * A `findJoined` select whose SQL is built once per process, with a placeholder for each of its named values
  * (`value(name)`) and for the tenant: Drizzle takes 0.1 to 0.2 ms to build a select of many fields or subqueries,
@@ -167,16 +174,11 @@ export function preparedJoined<F extends Fields, const N extends string>(
   /** `filter` is the scope's own (the tenant condition on a table, and `where`), for a subquery's tables. */
   build: (value: (name: N) => Placeholder, filter: Scope['filter']) => JoinedOptions<F>,
 ): PreparedJoined<F, N> {
-  if ((names as readonly string[]).includes(TENANT)) throw new Error(`${TENANT} is the tenant's placeholder`);
-  let built: PreparedSelect | undefined;
   return {
-    query() {
-      if (!built) {
-        const template = queriesOf(sql.placeholder(TENANT), currentDb);
-        built = template.joined(table, build((name) => sql.placeholder(name), template.filter)).prepare();
-      }
-      return built;
-    },
+    query: builtOnce(names, () => {
+      const template = queriesOf(sql.placeholder(TENANT), currentDb);
+      return template.joined(table, build((name) => sql.placeholder(name), template.filter)).prepare();
+    }),
   };
 }
 
@@ -186,23 +188,19 @@ export function preparedJoined<F extends Fields, const N extends string>(
  * (`$defaultFn`, such as a creation time) gets it made again at each insert, not once when the statement is built.
  */
 export function preparedInsert<T extends MySqlTable, const K extends keyof NewTenantRow<T> & string>(table: T, columns: readonly K[]): PreparedInsert<T, K> {
-  let built: ReturnType<PreparedInsert<T, K>['query']> | undefined;
   return {
-    query() {
-      if (!built) {
-        const tenantKey = tenantPropertyOf(table);
-        const given = new Set<string>([...columns, tenantKey]);
-        const defaults: [string, () => unknown][] = [];
-        for (const [key, column] of Object.entries(getTableColumns(table))) {
-          const made = column.defaultFn ?? (column.default === undefined ? column.onUpdateFn : undefined);
-          if (!given.has(key) && made) defaults.push([key, made]);
-        }
-        const values = Object.fromEntries([...given, ...defaults.map(([key]) => key)].map((key) => [key, sql.placeholder(key === tenantKey ? TENANT : key)]));
-        const statement = currentDb().insert(table).values(values as NewRow<T>).prepare() as unknown as PreparedSelect;
-        built = { statement, defaults };
+    query: builtOnce(columns, () => {
+      const tenantKey = tenantPropertyOf(table);
+      const given = new Set<string>([...columns, tenantKey]);
+      const defaults: [string, () => unknown][] = [];
+      for (const [key, column] of Object.entries(getTableColumns(table))) {
+        const made = column.defaultFn ?? (column.default === undefined ? column.onUpdateFn : undefined);
+        if (!given.has(key) && made) defaults.push([key, made]);
       }
-      return built;
-    },
+      const values = Object.fromEntries([...given, ...defaults.map(([key]) => key)].map((key) => [key, sql.placeholder(key === tenantKey ? TENANT : key)]));
+      const statement = currentDb().insert(table).values(values as NewRow<T>).prepare() as unknown as PreparedStatement;
+      return { statement, defaults };
+    }),
   };
 }
 
@@ -215,24 +213,19 @@ export function preparedUpdate<T extends MySqlTable, const N extends string>(
   names: readonly N[],
   build: (value: (name: N) => Placeholder) => { set: { [K in keyof NewRow<T>]?: NewRow<T>[K] | SQL }; where: SQL },
 ): PreparedUpdate<N> {
-  if ((names as readonly string[]).includes(TENANT)) throw new Error(`${TENANT} is the tenant's placeholder`);
-  let built: PreparedSelect | undefined;
   return {
-    query() {
-      if (!built) {
-        if (Object.values(getTableColumns(table)).some((c) => c.onUpdateFn)) throw new Error(`${getTableConfig(table).name} has a column updated in JS`);
-        const { set, where } = build((name) => sql.placeholder(name));
-        if (tenantPropertyOf(table) in set) throw new Error('tenant_id cannot be changed');
-        const template = queriesOf(sql.placeholder(TENANT), currentDb);
-        built = currentDb().update(table).set(set).where(template.filter(table, where)).prepare() as unknown as PreparedSelect;
-      }
-      return built;
-    },
+    query: builtOnce(names, () => {
+      if (Object.values(getTableColumns(table)).some((c) => c.onUpdateFn)) throw new Error(`${getTableConfig(table).name} has a column updated in JS`);
+      const { set, where } = build((name) => sql.placeholder(name));
+      if (tenantPropertyOf(table) in set) throw new Error('tenant_id cannot be changed');
+      const template = queriesOf(sql.placeholder(TENANT), currentDb);
+      return currentDb().update(table).set(set).where(template.filter(table, where)).prepare() as unknown as PreparedStatement;
+    }),
   };
 }
 
 /** A statement built on some pool, bound to this executor's client instead (a transaction's connection). */
-function boundTo<Q extends PreparedSelect>(statement: Q, executor: Executor): Q {
+function boundTo<Q extends PreparedStatement>(statement: Q, executor: Executor): Q {
   const bound = Object.create(statement) as Q;
   bound.client = clientOf(executor);
   return bound;

@@ -341,8 +341,7 @@ export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string
   if (open.state !== 'waiting' && open.state !== 'on_station') {
     throw new AppError('conflict', `The ticket is ${open.state.replace('_', ' ')}: reopen it on a station to log more`);
   }
-  const station = await repo.stationWithWheel(s, input.stationId);
-  const target = activeStation(station);
+  const target = activeStation(await repo.stationWithWheel(s, input.stationId));
   assertOneReadingPerBlade(input.readings);
   const now = new Date();
   let pairId: string;
@@ -384,7 +383,7 @@ export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string
       ticketId,
       ticketPairId: pairId,
       stationId: target.id,
-      wheelId: station?.wheelId ?? null,
+      wheelId: target.wheelId ?? null,
       technicianId: ctx.userId,
       hollowNm: input.hollowNm,
       passes: input.passes,
