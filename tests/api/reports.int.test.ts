@@ -155,18 +155,25 @@ describe('quality', () => {
     await sharpen(late, [4_000, 8_000], '2026-11-10T15:00:00');
     await refreshReports(desk.world.id, { since: local('2026-11-10T00:00:00') });
     expect(await levelingOfThree()).toEqual([[250, 2_000, 6_000]]);
-    // A second adjustment the next morning: before it the four first readings of the 10th, (4,000 + 8,000 + 1,000
-    // + 3,000) / 4 = 4,000; the first keeps its effect.
+    // A second adjustment the next morning: before it only the first readings since the first adjustment, (4,000 +
+    // 8,000) / 2 = 6,000 (the two before 12:00 showed the setting before that one); the first keeps its effect.
     await adjust(-125, '2026-11-11T10:00:00');
     expect(await levelingOfThree()).toEqual([
       [250, 2_000, 6_000],
-      [-125, 4_000, null],
+      [-125, 6_000, null],
     ]);
     // A full rebuild measures every adjustment again, to the same figures.
     await refreshReports(desk.world.id, { full: true });
     expect(await levelingOfThree()).toEqual([
       [250, 2_000, 6_000],
-      [-125, 4_000, null],
+      [-125, 6_000, null],
+    ]);
+    // The station page reads each adjustment's effect the same way (newest first there).
+    const page = await manager.get(`/api/rinks/${desk.world.slug}/stations/${three.id}`);
+    expect(page.status).toBe(200);
+    expect(page.body.adjustments.map((a: { amountMilli: number; beforeNm: number | null; afterNm: number | null }) => [a.amountMilli, a.beforeNm, a.afterNm])).toEqual([
+      [-125, 6_000, null],
+      [250, 2_000, 6_000],
     ]);
   });
 

@@ -1,6 +1,6 @@
 import { linearRegression, sampleCorrelation } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
-import { fitLevelingResponse, levelingAdvice, type LevelingAdviceInput } from './leveling';
+import { effectWindows, fitLevelingResponse, levelingAdvice, type LevelingAdviceInput } from './leveling';
 
 // A made-up station: each turn lowers the reading by 20,000 nm, with a little scatter and a small offset.
 const TURNS = [-1, -0.5, 0.25, 0.5, 1, 1.5];
@@ -161,5 +161,32 @@ describe('levelingAdvice', () => {
     expect(() => advise({ minPoints: 2 })).toThrow(RangeError);
     expect(() => advise({ minReadings: 1 })).toThrow(RangeError);
     expect(() => advise({ recentReadingsNm: [1, Number.NaN, 2] })).toThrow(RangeError);
+  });
+});
+
+describe('the readings that show an adjustment’s effect (worked by hand)', () => {
+  // Readings at minutes 1–30; adjustments at 12.5, 20 (exactly on a reading) and 29.5.
+  const readings = Array.from({ length: 30 }, (_, i) => i + 1);
+  const windows = effectWindows(readings, [12.5, 20, 29.5]);
+  const times = (range: [number, number]) => readings.slice(range[0], range[1]);
+
+  it('takes at most ten readings before, back to the previous adjustment', () => {
+    // 12.5: ten before it, minutes 3–12 (1 and 2 are beyond the ten). 20: only 13–19, after 12.5.
+    expect(times(windows[0]!.before)).toEqual([3, 4, 5, 6, 7, 8, 9, 10, 11, 12]);
+    expect(times(windows[1]!.before)).toEqual([13, 14, 15, 16, 17, 18, 19]);
+  });
+
+  it('takes at most ten readings after, up to the next adjustment, and none at the adjustment’s own moment', () => {
+    // 12.5: 13–19, then 20 is the next adjustment's own time. 20: 21–29 (nine, 30 is after 29.5). 29.5: only 30.
+    expect(times(windows[0]!.after)).toEqual([13, 14, 15, 16, 17, 18, 19]);
+    expect(times(windows[1]!.after)).toEqual([21, 22, 23, 24, 25, 26, 27, 28, 29]);
+    expect(times(windows[2]!.before)).toEqual([21, 22, 23, 24, 25, 26, 27, 28, 29]);
+    expect(times(windows[2]!.after)).toEqual([30]);
+  });
+
+  it('caps each side at the size it is given', () => {
+    expect(times(effectWindows(readings, [12.5], 3)[0]!.before)).toEqual([10, 11, 12]);
+    expect(times(effectWindows(readings, [12.5], 3)[0]!.after)).toEqual([13, 14, 15]);
+    expect(effectWindows([], [5])).toEqual([{ before: [0, 0], after: [0, 0] }]);
   });
 });

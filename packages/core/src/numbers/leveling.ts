@@ -196,3 +196,39 @@ export function levelingAdvice(input: LevelingAdviceInput): LevelingAdvice {
     ...response,
   };
 }
+
+// ---- the effect of an adjustment ------------------------------------------------------------------------------
+
+/** How many first readings on each side of a leveling adjustment stand for its effect. */
+export const EFFECT_READINGS = 10;
+
+/** Index ranges [from, to) into a station's readings. */
+export interface EffectWindow {
+  before: [number, number];
+  after: [number, number];
+}
+
+/**
+ * Which of a station's first readings show each of its adjustments' effect; the station page and the quality report
+ * both read it this way. Only readings strictly between an adjustment and its neighbours count, because a reading
+ * beyond a neighbour shows that neighbour's setting: before, the last EFFECT_READINGS after the previous adjustment;
+ * after, the first EFFECT_READINGS before the next one. A reading taken at the very moment of an adjustment belongs
+ * to neither side. Both lists are times in ms, ascending; the answer follows `adjustments`.
+ */
+export function effectWindows(readings: readonly number[], adjustments: readonly number[], size = EFFECT_READINGS): EffectWindow[] {
+  const windows: EffectWindow[] = [];
+  let i = 0;
+  for (const [k, at] of adjustments.entries()) {
+    const previous = adjustments[k - 1] ?? -Infinity;
+    const next = adjustments[k + 1] ?? Infinity;
+    while (i < readings.length && readings[i]! < at) i += 1;
+    let from = i;
+    while (from > 0 && i - from < size && readings[from - 1]! > previous) from -= 1;
+    let start = i;
+    while (start < readings.length && readings[start]! === at) start += 1;
+    let end = start;
+    while (end < readings.length && end - start < size && readings[end]! < next) end += 1;
+    windows.push({ before: [from, i], after: [start, end] });
+  }
+  return windows;
+}

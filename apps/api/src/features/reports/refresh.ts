@@ -1,6 +1,7 @@
-import { bandsFor, classifyLevel, DRIFT_DEFAULTS, TURNAROUND_BUCKET_MINUTES, TURNAROUND_LAST_BUCKET, type LevelBands } from '@rinkwright/core';
+import { bandsFor, classifyLevel, DRIFT_DEFAULTS, EFFECT_READINGS, TURNAROUND_BUCKET_MINUTES, TURNAROUND_LAST_BUCKET, type LevelBands } from '@rinkwright/core';
 import { hourKey, scoped, type Scope } from '@rinkwright/db';
 import { readDeskSettings } from '../../lib/desk-settings';
+import { groupBy } from '../../lib/sorted';
 import { driftAlertOf, DRIFT_WINDOW } from '../../lib/drift';
 import { consecutiveRuns, localClock, nextDay, type LocalClock } from './local-time';
 import * as repo from './repository';
@@ -11,8 +12,6 @@ import { withRollups } from './rollup';
 // recomputed whole from the raw rows and replaced, so a refresh can run any number of times and the result
 // is the same. The report routes refresh before they read, and the worker refreshes every rink as it goes.
 
-/** How many first readings on each side of a leveling adjustment show its effect. */
-export const EFFECT_READINGS = 10;
 
 /**
  * How far before the watermark a refresh looks again: a row stamped just before the last refresh whose
@@ -218,28 +217,34 @@ async function measureLeveling(s: Scope, changed: 'all' | { start: Date; end: Da
   if (counts.adjustments === 0 || (changed !== 'all' && changed.length === 0 && counts.adjustments === counts.measured)) return;
   const [adjustments, windows] = await Promise.all([repo.allAdjustments(s), repo.measuredWindows(s)]);
   const stored = new Map(windows.map((w) => [w.adjustmentId, w]));
-  const due = adjustments.filter((a) => {
-    const w = stored.get(a.id);
-    if (changed === 'all' || !w) return true;
-    return changed.some((r) => (w.windowFrom === null || w.windowFrom < r.end) && (w.windowTo === null || w.windowTo >= r.start));
-  });
+  // An adjustment's windows end at its neighbours, so a new one at a station has its neighbours measured again too.
+  const byStation = groupBy(
+    [...adjustments].sort((a, b) => a.at.getTime() - b.at.getTime()),
+    (a) => a.stationId,
+  );
   const rows: repo.LevelingRow[] = [];
-  for (const a of due) {
-    // Newest first before it, oldest first after it: the last of each is the window's far end.
-    const before = await repo.firstReadingsAround(s, a.stationId, a.at, 'before', EFFECT_READINGS);
-    const after = await repo.firstReadingsAround(s, a.stationId, a.at, 'after', EFFECT_READINGS);
-    rows.push({
-      adjustmentId: a.id,
-      stationId: a.stationId,
-      at: a.at,
-      amountMilli: a.amountMilli,
-      beforeReadings: before.length,
-      beforeSumNm: before.reduce((n, r) => n + r.readingNm, 0),
-      afterReadings: after.length,
-      afterSumNm: after.reduce((n, r) => n + r.readingNm, 0),
-      windowFrom: before.length === EFFECT_READINGS ? before[before.length - 1]!.takenAt : null,
-      windowTo: after.length === EFFECT_READINGS ? after[after.length - 1]!.takenAt : null,
-    });
+  for (const list of byStation.values()) {
+    const anyNew = list.some((a) => !stored.has(a.id));
+    for (const [k, a] of list.entries()) {
+      const w = stored.get(a.id);
+      const due = changed === 'all' || anyNew || !w || changed.some((r) => (w.windowFrom === null || w.windowFrom < r.end) && (w.windowTo === null || w.windowTo >= r.start));
+      if (!due) continue;
+      // Newest first before it, oldest first after it: the last of each is the window's far end.
+      const before = await repo.effectReadings(s, a.stationId, a.at, 'before', list[k - 1]?.at, EFFECT_READINGS);
+      const after = await repo.effectReadings(s, a.stationId, a.at, 'after', list[k + 1]?.at, EFFECT_READINGS);
+      rows.push({
+        adjustmentId: a.id,
+        stationId: a.stationId,
+        at: a.at,
+        amountMilli: a.amountMilli,
+        beforeReadings: before.length,
+        beforeSumNm: before.reduce((n, r) => n + r.readingNm, 0),
+        afterReadings: after.length,
+        afterSumNm: after.reduce((n, r) => n + r.readingNm, 0),
+        windowFrom: before.length === EFFECT_READINGS ? before[before.length - 1]!.takenAt : null,
+        windowTo: after.length === EFFECT_READINGS ? after[after.length - 1]!.takenAt : null,
+      });
+    }
   }
   await repo.replaceLeveling(s, rows);
 }

@@ -1,4 +1,4 @@
-import { and, asc, eq, gte, inArray, isNotNull, isNull, lt, max, min, ne, sql, sum, type SQL } from 'drizzle-orm';
+import { and, asc, eq, gt, gte, inArray, isNotNull, isNull, lt, max, min, ne, sql, sum, type SQL } from 'drizzle-orm';
 import type { AnyMySqlColumn } from 'drizzle-orm/mysql-core';
 import {
   creditEntry,
@@ -388,12 +388,21 @@ export const seriesBefore = (s: Scope, stationId: string, at: Date, limit: numbe
     limit,
   });
 
-/** The last `limit` first readings before a moment (newest first), or the first after it (oldest first). */
-export const firstReadingsAround = (s: Scope, stationId: string, at: Date, side: 'before' | 'after', limit: number) =>
+/**
+ * The first readings that show an adjustment's effect (`effectWindows` in @rinkwright/core says which): before it, the
+ * last `limit` after the previous adjustment (newest first); after it, the first `limit` before the next one (oldest
+ * first). `neighbour` is that previous or next adjustment's time, when there is one.
+ */
+export const effectReadings = (s: Scope, stationId: string, at: Date, side: 'before' | 'after', neighbour: Date | undefined, limit: number) =>
   s.findJoined(levelReading, {
     fields: { readingNm: levelReading.readingNm, takenAt: levelReading.takenAt },
     joins: [],
-    where: and(eq(levelReading.stationId, stationId), eq(levelReading.attempt, 1), side === 'before' ? lt(levelReading.takenAt, at) : gte(levelReading.takenAt, at)),
+    where: and(
+      eq(levelReading.stationId, stationId),
+      sql`(${levelReading.kind} = 'check' or ${levelReading.attempt} = 1)`,
+      side === 'before' ? lt(levelReading.takenAt, at) : gt(levelReading.takenAt, at),
+      neighbour ? (side === 'before' ? gt(levelReading.takenAt, neighbour) : lt(levelReading.takenAt, neighbour)) : undefined,
+    ),
     orderBy: side === 'before' ? sql`${levelReading.takenAt} desc` : asc(levelReading.takenAt),
     limit,
   });

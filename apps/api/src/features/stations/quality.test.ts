@@ -2,9 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { DEFAULT_DESK_SETTINGS } from '../../lib/desk-settings';
 import { assessStation, type StationHistory } from './quality';
 
-// The effect of each leveling adjustment, read off the readings around it: the mean of the last five first
-// readings before it against the mean of up to five after it, those after stopping at the next adjustment. The
-// expected means are worked by hand below.
+// The effect of each leveling adjustment, read off the readings around it (effectWindows in @rinkwright/core): the
+// mean of up to ten first readings before it, back to the previous adjustment, against up to ten after it, up to the
+// next one. The expected means are worked by hand below.
 
 const station: StationHistory['station'] = {
   id: 'st-1',
@@ -24,7 +24,7 @@ const station: StationHistory['station'] = {
 const hour = (h: number) => new Date(Date.UTC(2026, 10, 2, 0, h * 60));
 
 describe('the effect of leveling adjustments', () => {
-  it('averages the five first readings before each and up to five after, up to the next one', () => {
+  it('averages the first readings between each adjustment and its neighbours', () => {
     // First readings of 1,000 nm × the hour, hours 1–12; a re-run at 7:12 does not belong to the series.
     const readings: StationHistory['readings'] = Array.from({ length: 12 }, (_, i) => ({ takenAt: hour(i + 1), readingNm: 1000 * (i + 1), kind: 'sharpening' as const, attempt: 1 }));
     readings.splice(7, 0, { takenAt: hour(7.2), readingNm: 999_000, kind: 'sharpening', attempt: 2 });
@@ -40,11 +40,11 @@ describe('the effect of leveling adjustments', () => {
       wheelEvents: [],
       now: hour(13),
     });
-    // Newest first. 8:00: before 3–7 → 5,000; after 9–12 (only four) → 10,500.
-    // 6:30: before 2–6 → 4,000; after only 7 (8:00 is the next adjustment's own time) → 7,000.
+    // Newest first. 8:00: before only 7 (back to 6:30) → 7,000; after 9–12 → 10,500.
+    // 6:30: before 1–6 → 3,500; after only 7 (8:00 is the next adjustment's own time) → 7,000.
     expect(detail.adjustments.map((a) => [a.at, a.beforeNm, a.afterNm])).toEqual([
-      [hour(8).toISOString(), 5000, 10_500],
-      [hour(6.5).toISOString(), 4000, 7000],
+      [hour(8).toISOString(), 7000, 10_500],
+      [hour(6.5).toISOString(), 3500, 7000],
     ]);
   });
 

@@ -2,6 +2,7 @@ import {
   bandsFor,
   classifyLevel,
   driftWatch,
+  effectWindows,
   levelingAdvice,
   speedCheck,
   wheelWear,
@@ -10,13 +11,10 @@ import {
   type StationRow,
 } from '@rinkwright/core';
 import { DRIFT_WINDOW, driftOptions } from '../../lib/drift';
-import { firstIndex } from '../../lib/sorted';
 
 // Turns a station's raw history into what its page shows: the readings in their bands, the drift watch, the
 // leveling advice from its own adjustments, and the wheel's life. Pure: the service loads, this computes.
 
-/** Readings either side of an adjustment that stand for "before" and "after" it. */
-const WINDOW = 5;
 /** The advice looks at the station's readings since its last adjustment, the most recent ones. */
 const RECENT = 30;
 
@@ -58,20 +56,12 @@ export function assessStation(h: StationHistory): StationDetail {
       : { status: watch.status, alert: false, reasons: [], mean: null, ucl: null, lcl: null, ewma: [], ewmaUcl: null, ewmaLcl: null };
 
   const byTime = [...h.adjustments].sort((a, b) => a.at.getTime() - b.at.getTime());
-  // The series is oldest first: each adjustment finds its place by bisection, not by a pass over every reading.
-  const times = series.map((r) => r.takenAt.getTime());
-  const adjustments = byTime.map((adj, i) => {
-    const at = adj.at.getTime();
-    const next = byTime[i + 1]?.at.getTime() ?? Infinity;
-    const start = firstIndex(times, (t) => t >= at);
-    const before = series.slice(Math.max(0, start - WINDOW), start).map((r) => r.readingNm);
-    const after = series
-      .slice(firstIndex(times, (t) => t > at))
-      .slice(0, WINDOW)
-      .filter((r) => r.takenAt.getTime() < next)
-      .map((r) => r.readingNm);
-    return { ...adj, beforeNm: before.length ? average(before) : null, afterNm: after.length ? average(after) : null };
-  });
+  const windows = effectWindows(
+    series.map((r) => r.takenAt.getTime()),
+    byTime.map((a) => a.at.getTime()),
+  );
+  const meanOf = ([from, to]: [number, number]) => (to > from ? average(series.slice(from, to).map((r) => r.readingNm)) : null);
+  const adjustments = byTime.map((adj, i) => ({ ...adj, beforeNm: meanOf(windows[i]!.before), afterNm: meanOf(windows[i]!.after) }));
   const lastAdjustment = byTime[byTime.length - 1]?.at;
   const recent = series.filter((r) => !lastAdjustment || r.takenAt > lastAdjustment).slice(-RECENT).map((r) => r.readingNm);
   const advice = levelingAdvice({

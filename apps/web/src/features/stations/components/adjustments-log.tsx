@@ -1,6 +1,6 @@
 import type { ColumnDef } from '@tanstack/react-table';
 import { useMemo } from 'react';
-import type { StationDetail, UnitPreference } from '@rinkwright/core';
+import { EFFECT_READINGS, type StationDetail, type UnitPreference } from '@rinkwright/core';
 import { DataTable } from '../../../components/ui/data-table';
 import { formatDateTime } from '../../../lib/format';
 import { adjustText, readingText } from './typed';
@@ -23,7 +23,7 @@ export function AdjustmentsLog({ detail, unit, timeZone }: { detail: StationDeta
   return (
     <>
       <DataTable data={detail.adjustments} columns={columns} caption="Leveling adjustments of this station, newest first" empty="No leveling adjustments logged yet." />
-      <p className="mt-2 text-sm text-ink-soft">Means of up to five readings either side of each adjustment; the leveling advice fits the station's response to them.</p>
+      <p className="mt-2 text-sm text-ink-soft">Means of up to {EFFECT_READINGS} first readings either side of each adjustment, none beyond the adjustments next to it; the leveling advice fits the station's response to them.</p>
     </>
   );
 }
