@@ -1,5 +1,5 @@
 import { eq } from 'drizzle-orm';
-import { levelingAdjustment, levelReading, scoped, ticket, wheel, wheelEvent } from '@rinkwright/db';
+import { levelingAdjustment, levelReading, reportLeveling, scoped, ticket, wheel, wheelEvent } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { createSharpening, createStation, createTicket } from '@rinkwright/db/testing';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -161,6 +161,13 @@ describe('quality', () => {
     expect(await levelingOfThree()).toEqual([
       [250, 2_000, 6_000],
       [-125, 6_000, null],
+    ]);
+    // The first one's after side has only two readings, but the second adjustment ends it: its window is closed
+    // there, so a later write outside it does not make it be measured again; the second's after side stays open.
+    const stored = await db.select({ amountMilli: reportLeveling.amountMilli, windowTo: reportLeveling.windowTo }).from(reportLeveling).where(eq(reportLeveling.stationId, three.id));
+    expect(stored.sort((a, b) => b.amountMilli - a.amountMilli)).toEqual([
+      { amountMilli: 250, windowTo: local('2026-11-11T10:00:00') },
+      { amountMilli: -125, windowTo: null },
     ]);
     // A full rebuild measures every adjustment again, to the same figures.
     await refreshReports(desk.world.id, { full: true });

@@ -156,10 +156,11 @@ export const reportRefresh = mysqlTable(
 
 /**
  * The effect of each leveling adjustment: the first readings of its station just before it and just after it
- * (up to EFFECT_READINGS each side, in the report service), as counts and sums for the means. `windowFrom` and
- * `windowTo` are the times of the oldest reading before and the newest after it that were counted, null while that
- * side has fewer than it needs: a reading written between them (or on an open side) changes the effect, so the
- * refresh computes the adjustment again; one outside them cannot.
+ * (up to EFFECT_READINGS each side, none beyond the adjustments next to it: effectWindows in @rinkwright/core), as
+ * counts and sums for the means. `windowFrom` and `windowTo` are the times of the oldest reading before and the
+ * newest after it that were counted; on a side with fewer, the time of the neighbouring adjustment that ends it, or
+ * null while none does: a reading written between them (or on an open side) changes the effect, so the refresh
+ * computes the adjustment again; one outside them cannot.
  */
 export const reportLeveling = mysqlTable(
   'report_leveling',

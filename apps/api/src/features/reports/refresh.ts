@@ -230,8 +230,9 @@ async function measureLeveling(s: Scope, changed: 'all' | { start: Date; end: Da
       const due = changed === 'all' || anyNew || !w || changed.some((r) => (w.windowFrom === null || w.windowFrom < r.end) && (w.windowTo === null || w.windowTo >= r.start));
       if (!due) continue;
       // Newest first before it, oldest first after it: the last of each is the window's far end.
-      const before = await repo.effectReadings(s, a.stationId, a.at, 'before', list[k - 1]?.at, EFFECT_READINGS);
-      const after = await repo.effectReadings(s, a.stationId, a.at, 'after', list[k + 1]?.at, EFFECT_READINGS);
+      const [previous, next] = [list[k - 1]?.at, list[k + 1]?.at];
+      const before = await repo.effectReadings(s, a.stationId, a.at, 'before', previous, EFFECT_READINGS);
+      const after = await repo.effectReadings(s, a.stationId, a.at, 'after', next, EFFECT_READINGS);
       rows.push({
         adjustmentId: a.id,
         stationId: a.stationId,
@@ -241,8 +242,9 @@ async function measureLeveling(s: Scope, changed: 'all' | { start: Date; end: Da
         beforeSumNm: before.reduce((n, r) => n + r.readingNm, 0),
         afterReadings: after.length,
         afterSumNm: after.reduce((n, r) => n + r.readingNm, 0),
-        windowFrom: before.length === EFFECT_READINGS ? before[before.length - 1]!.takenAt : null,
-        windowTo: after.length === EFFECT_READINGS ? after[after.length - 1]!.takenAt : null,
+        // A side short of readings is still closed when a neighbour ends it: nothing beyond that can count.
+        windowFrom: before.length === EFFECT_READINGS ? before[before.length - 1]!.takenAt : (previous ?? null),
+        windowTo: after.length === EFFECT_READINGS ? after[after.length - 1]!.takenAt : (next ?? null),
       });
     }
   }
