@@ -50,6 +50,35 @@ describe('logging a pair', () => {
     expect(await rowsOf(levelReading, desk.world.id)).toBe(2);
   });
 
+  it('answers with the whole ticket, as a later read gives it: pairs by position, their sharpenings, readings by blade and attempt', async () => {
+    const desk = await createDesk('Ice Harbor');
+    const technician = await as(desk.world.staff.technician);
+    const manager = await as(desk.world.staff.manager);
+    const made = await takeIn(technician, desk, 3);
+    const [first, second, third] = made.pairs;
+
+    // The second pair first, with no readings; then the first, and a re-run of its left blade by the manager.
+    await logPair(manager, desk, made.id, second?.id ?? '', { readings: [] });
+    const sharpeningId = firstSharpening(await logPair(technician, desk, made.id, first?.id ?? ''))?.id ?? '';
+    const rerun = await write(manager, rerunPath(desk, sharpeningId), { readings: [{ blade: 'left', readingNm: 1_270 }] });
+    const fetched = (await technician.get(`/api/rinks/${desk.world.slug}/tickets/${made.id}`)).body as TicketBody;
+
+    expect(rerun.status).toBe(201);
+    expect(fetched).toEqual(rerun.body);
+    expect([fetched.pairCount, fetched.pairsDone]).toEqual([3, 2]);
+    expect(fetched.pairs.map((p) => [p.id, p.position, p.sharpenings.length])).toEqual([
+      [first?.id, 1, 1],
+      [second?.id, 2, 1],
+      [third?.id, 3, 0],
+    ]);
+    expect(fetched.pairs[0]?.sharpenings[0]?.readings.map((r) => [r.blade, r.attempt, r.readingNm, r.takenBy])).toEqual([
+      ['left', 1, 5_080, desk.world.staff.technician.name],
+      ['left', 2, 1_270, desk.world.staff.manager.name],
+      ['right', 1, -2_540, desk.world.staff.technician.name],
+    ]);
+    expect(fetched.pairs[1]?.sharpenings[0]).toMatchObject({ technician: desk.world.staff.manager.name, readings: [] });
+  });
+
   it('turns a tilt angle into Δh = w·tan θ on the logged blade width', async () => {
     const desk = await createDesk('North Pond Arena');
     const technician = await as(desk.world.staff.technician);

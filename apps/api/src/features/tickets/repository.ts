@@ -114,21 +114,26 @@ export function listTickets(tenantId: string, filter: { states: TicketState[]; s
   return scoped(tenantId).run(list, { stationId: filter.stationId ?? null, customerId: filter.customerId ?? null });
 }
 
-const ticketSummary = preparedJoined(ticket, ['ticketId'], (value) => ({
-  fields: { ...summaryFields(), notes: ticket.notes, voidReason: ticket.voidReason },
-  joins: [{ table: customer, on: eq(customer.id, ticket.customerId) }],
-  where: eq(ticket.id, value('ticketId')),
-}));
-
-/** One ticket's summary with its notes, in whatever state it is. */
-export async function findTicketSummary(s: Scope, ticketId: string) {
-  const [row] = await s.run(ticketSummary, { ticketId });
-  return row;
-}
-
-const pairsOfTicket = preparedJoined(ticketPair, ['ticketId'], (value) => ({
+/**
+ * A ticket with its customer and its pairs, a row per pair (one row with null pair fields when it has none), in
+ * position order. With the two reads below it is the whole ticket: three statements, where a read per part took five.
+ */
+const ticketWithPairs = preparedJoined(ticket, ['ticketId'], (value) => ({
   fields: {
-    id: ticketPair.id,
+    id: ticket.id,
+    number: ticket.number,
+    state: ticket.state,
+    stationId: ticket.stationId,
+    payment: ticket.payment,
+    droppedAt: ticket.droppedAt,
+    promisedAt: ticket.promisedAt,
+    readyAt: ticket.readyAt,
+    notes: ticket.notes,
+    voidReason: ticket.voidReason,
+    customerId: customer.id,
+    customerName: customer.name,
+    memberCode: customer.memberCode,
+    pairId: ticketPair.id,
     position: ticketPair.position,
     label: ticketPair.label,
     skateProfileId: ticketPair.skateProfileId,
@@ -137,14 +142,19 @@ const pairsOfTicket = preparedJoined(ticketPair, ['ticketId'], (value) => ({
     serviceId: ticketPair.serviceId,
     serviceName: serviceItem.name,
     priceMinor: ticketPair.priceMinor,
-    notes: ticketPair.notes,
+    pairNotes: ticketPair.notes,
   },
-  joins: [{ table: serviceItem, on: eq(serviceItem.id, ticketPair.serviceId) }],
-  where: eq(ticketPair.ticketId, value('ticketId')),
+  joins: [
+    { table: customer, on: eq(customer.id, ticket.customerId) },
+    { table: ticketPair, on: eq(ticketPair.ticketId, ticket.id), left: true },
+    { table: serviceItem, on: eq(serviceItem.id, ticketPair.serviceId), left: true },
+  ],
+  where: eq(ticket.id, value('ticketId')),
   orderBy: asc(ticketPair.position),
 }));
 
-const sharpeningsOfTicket = preparedJoined(sharpening, ['ticketId'], (value) => ({
+/** The ticket's sharpenings, a row per reading (one row with null reading fields when it has none). */
+const sharpeningsWithReadings = preparedJoined(sharpening, ['ticketId'], (value) => ({
   fields: {
     id: sharpening.id,
     ticketPairId: sharpening.ticketPairId,
@@ -158,32 +168,22 @@ const sharpeningsOfTicket = preparedJoined(sharpening, ['ticketId'], (value) => 
     doneAt: sharpening.doneAt,
     correctsId: sharpening.correctsId,
     correctionReason: sharpening.correctionReason,
-  },
-  joins: [
-    { table: station, on: eq(station.id, sharpening.stationId) },
-    { table: user, on: eq(user.id, sharpening.technicianId) },
-  ],
-  where: eq(sharpening.ticketId, value('ticketId')),
-  orderBy: [asc(sharpening.createdAt), asc(sharpening.id)],
-}));
-
-const readingsOfTicket = preparedJoined(levelReading, ['ticketId'], (value) => ({
-  fields: {
-    id: levelReading.id,
-    sharpeningId: levelReading.sharpeningId,
+    readingId: levelReading.id,
     blade: levelReading.blade,
     attempt: levelReading.attempt,
     readingNm: levelReading.readingNm,
     tiltMillideg: levelReading.tiltMillideg,
     takenAt: levelReading.takenAt,
-    takenBy: user.name,
+    // The user table is joined once already (the technician); the reading's taker is read beside it.
+    takenBy: sql<string>`(select ${qualified(user, user.name)} from ${user} where ${qualified(user, user.id)} = ${qualified(levelReading, levelReading.takenBy)})`,
   },
   joins: [
-    { table: sharpening, on: eq(sharpening.id, levelReading.sharpeningId) },
-    { table: user, on: eq(user.id, levelReading.takenBy) },
+    { table: station, on: eq(station.id, sharpening.stationId) },
+    { table: user, on: eq(user.id, sharpening.technicianId) },
+    { table: levelReading, on: eq(levelReading.sharpeningId, sharpening.id), left: true },
   ],
   where: eq(sharpening.ticketId, value('ticketId')),
-  orderBy: [asc(levelReading.blade), asc(levelReading.attempt)],
+  orderBy: [asc(sharpening.createdAt), asc(sharpening.id), asc(levelReading.blade), asc(levelReading.attempt)],
 }));
 
 const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
@@ -204,15 +204,14 @@ const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
   orderBy: [asc(ticketEvent.at), asc(ticketEvent.id)],
 }));
 
-/** A ticket's pairs, sharpenings, readings and history; every ticket page and every counter write answers with them. */
-export async function ticketParts(s: Scope, ticketId: string) {
-  const [pairs, sharpenings, readings, events] = await Promise.all([
-    s.run(pairsOfTicket, { ticketId }),
-    s.run(sharpeningsOfTicket, { ticketId }),
-    s.run(readingsOfTicket, { ticketId }),
+/** A ticket as it stands in `s`, with its pairs, sharpenings, readings and history; every ticket page and every counter write answers with it. */
+export async function ticketRows(s: Scope, ticketId: string) {
+  const [pairs, sharpenings, events] = await Promise.all([
+    s.run(ticketWithPairs, { ticketId }),
+    s.run(sharpeningsWithReadings, { ticketId }),
     s.run(eventsOfTicket, { ticketId }),
   ]);
-  return { pairs, sharpenings, readings, events };
+  return { pairs, sharpenings, events };
 }
 
 /** Moves the ticket from one state to another, only if it is still in the state the caller saw. */

@@ -184,25 +184,62 @@ function toSummary(r: Awaited<ReturnType<typeof repo.listTickets>>[number]): Tic
 
 /** The ticket as it stands in `s` (inside a transaction: with that transaction's own writes). */
 export async function describeTicket(s: Scope, ticketId: string): Promise<TicketDetail> {
-  const [summary, { pairs, sharpenings, readings, events }] = await Promise.all([repo.findTicketSummary(s, ticketId), repo.ticketParts(s, ticketId)]);
-  if (!summary) throw AppError.notFound(TICKET_NOT_FOUND);
+  const rows = await repo.ticketRows(s, ticketId);
+  const head = rows.pairs[0];
+  if (!head) throw AppError.notFound(TICKET_NOT_FOUND);
+  // A row per reading: a sharpening is its first row, and each row that carries a reading adds it.
+  const sharpenings = new Map<string, TicketDetail['pairs'][number]['sharpenings'][number] & { ticketPairId: string }>();
+  for (const r of rows.sharpenings) {
+    let done = sharpenings.get(r.id);
+    if (!done) {
+      done = {
+        id: r.id,
+        ticketPairId: r.ticketPairId,
+        stationId: r.stationId,
+        stationName: r.stationName,
+        wheelId: r.wheelId,
+        technician: r.technician,
+        hollowNm: r.hollowNm,
+        passes: r.passes,
+        bladeWidthNm: r.bladeWidthNm,
+        doneAt: r.doneAt.toISOString(),
+        correctsId: r.correctsId,
+        correctionReason: r.correctionReason,
+        readings: [],
+      };
+      sharpenings.set(r.id, done);
+    }
+    if (r.readingId !== null) {
+      done.readings.push({ id: r.readingId, blade: r.blade, attempt: r.attempt, readingNm: r.readingNm, tiltMillideg: r.tiltMillideg, takenAt: r.takenAt.toISOString(), takenBy: r.takenBy });
+    }
+  }
+  const done = [...sharpenings.values()];
+  // A ticket without pairs is one row whose pair fields are all null (the left join).
+  const pairs = rows.pairs.flatMap((p) =>
+    p.pairId === null
+      ? []
+      : [
+          {
+            id: p.pairId,
+            position: p.position,
+            label: p.label,
+            skateProfileId: p.skateProfileId,
+            bladeWidthNm: p.bladeWidthNm,
+            hollowNm: p.hollowNm,
+            serviceId: p.serviceId,
+            serviceName: p.serviceName,
+            priceMinor: p.priceMinor,
+            notes: p.pairNotes,
+            sharpenings: done.filter((d) => d.ticketPairId === p.pairId),
+          },
+        ],
+  );
   return {
-    ...toSummary(summary),
-    notes: summary.notes,
-    voidReason: summary.voidReason,
-    pairs: pairs.map((p) => ({
-      ...p,
-      sharpenings: sharpenings
-        .filter((s) => s.ticketPairId === p.id)
-        .map((s) => ({
-          ...s,
-          doneAt: s.doneAt.toISOString(),
-          readings: readings
-            .filter((r) => r.sharpeningId === s.id)
-            .map((r) => ({ id: r.id, blade: r.blade, attempt: r.attempt, readingNm: r.readingNm, tiltMillideg: r.tiltMillideg, takenAt: r.takenAt.toISOString(), takenBy: r.takenBy })),
-        })),
-    })),
-    events: events.map((e) => ({
+    ...toSummary({ ...head, pairCount: pairs.length, pairsDone: new Set(done.map((d) => d.ticketPairId)).size }),
+    notes: head.notes,
+    voidReason: head.voidReason,
+    pairs,
+    events: rows.events.map((e) => ({
       fromState: e.fromState,
       toState: e.toState,
       stationName: e.stationName,
