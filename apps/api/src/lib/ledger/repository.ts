@@ -66,15 +66,22 @@ export interface LotWithContext extends LotRecord {
   membershipGraceUntil: Date | null;
 }
 
-/** A lot's columns, its product's name and its membership's standing (a lot of a blocked membership cannot redeem). */
-function lotFields() {
+/** A lot's columns and its membership's standing (a lot of a blocked membership cannot redeem). */
+function standingFields() {
   return {
     ...columnsOf(creditLot),
-    productName: sql<string | null>`(select ${product.name} from ${product} where ${product.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${product.id} = ${qualified(creditLot, creditLot.productId)})`,
     membershipState: sql<LotWithContext['membershipState']>`(select ${membership.state} from ${membership} where ${membership.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${membership.id} = ${qualified(creditLot, creditLot.membershipId)})`,
     membershipGraceUntil: sql<Date | null>`(select ${membership.graceUntil} from ${membership} where ${membership.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${membership.id} = ${qualified(creditLot, creditLot.membershipId)})`.mapWith(
       (v: string | Date | null) => (v === null ? null : v instanceof Date ? v : new Date(`${v.replace(' ', 'T')}Z`)),
     ),
+  };
+}
+
+/** With the lot's product's name, which the balance shows. */
+function lotFields() {
+  return {
+    ...standingFields(),
+    productName: sql<string | null>`(select ${product.name} from ${product} where ${product.tenantId} = ${qualified(creditLot, creditLot.tenantId)} and ${product.id} = ${qualified(creditLot, creditLot.productId)})`,
   };
 }
 
@@ -86,9 +93,10 @@ export function lotsOf(s: Scope, accountIds: string[], options: { liveOnly?: boo
   return s.findJoined(creditLot, { fields: lotFields(), joins: [], where, orderBy: LOT_ORDER }) as Promise<LotWithContext[]>;
 }
 
-// Every redemption starts with this read, so it is built once (preparedJoined).
+// Every redemption starts with this read, so it is built once (preparedJoined). A redemption answers with the
+// balance's count only, so the lots' product names are not read.
 const accountWithLots = preparedJoined(creditAccount, ['customerId'], (value) => ({
-  fields: { ...lotFields(), lockedAccountId: creditAccount.id },
+  fields: { ...standingFields(), lockedAccountId: creditAccount.id },
   joins: [{ table: creditLot, on: eq(creditLot.accountId, creditAccount.id), left: true }],
   where: eq(creditAccount.customerId, value('customerId')),
   // Ordered here, not in SQL: ordering by the joined table would cost a temporary table on every redemption.
@@ -97,7 +105,7 @@ const accountWithLots = preparedJoined(creditAccount, ['customerId'], (value) =>
 
 /**
  * The customer's account and all its lots in one locking read: the account row is locked (every change to its lots
- * waits on it), and so are the lots. Undefined when the customer has no account yet.
+ * waits on it), and so are the lots (their product names left out: null). Undefined when the customer has no account yet.
  */
 export async function lockAccountOfCustomerWithLots(s: Scope, customerId: string): Promise<{ account: { id: string }; lots: LotWithContext[] } | undefined> {
   const rows = await s.run(accountWithLots, { customerId });
@@ -106,7 +114,7 @@ export async function lockAccountOfCustomerWithLots(s: Scope, customerId: string
   // A left join gives an account without lots one row whose lot columns are all null.
   const lots = rows
     .filter((r) => r.id !== null)
-    .map(({ lockedAccountId: _account, ...lot }) => lot as LotWithContext)
+    .map(({ lockedAccountId: _account, ...lot }) => ({ ...lot, productName: null }) as LotWithContext)
     .sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime() || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   return { account: { id: first.lockedAccountId }, lots };
 }
