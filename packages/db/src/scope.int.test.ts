@@ -178,6 +178,23 @@ describe('scoped(tenantId)', () => {
     ]);
   });
 
+  it('an index hint reads the table and a joined one by the named index, still in the scope’s rink; an unknown name is refused', async () => {
+    const w = await twoRinks();
+    const byName = (index: string) =>
+      preparedJoined(customer, ['name'], (value) => ({
+        fields: { customerId: customer.id, role: member.role },
+        joins: [{ table: member, on: eq(member.userId, customer.userId), index: 'member_tenant_user_unique' }],
+        where: eq(customer.name, value('name')),
+        index,
+      }));
+    const hinted = byName('customer_tenant_name_idx');
+
+    expect(await scoped(w.a.id).run(hinted, { name: 'Skater at A' })).toEqual([{ customerId: w.customerA.id, role: 'technician' }]);
+    expect(await scoped(w.b.id).run(hinted, { name: 'Skater at A' })).toEqual([]);
+    // MariaDB refuses a hint naming an index the table does not have (error 1176), so a renamed index fails loudly.
+    await expect(scoped(w.a.id).run(byName('customer_no_such_idx'), { name: 'Skater at A' })).rejects.toThrow(/customer_no_such_idx/);
+  });
+
   it('a prepared select runs with each scope’s tenant, and inside a transaction on its connection', async () => {
     const w = await twoRinks();
     // One statement for every rink: the tenant is a placeholder the scope fills, in the main table and the joined one.

@@ -29,8 +29,9 @@ export const findStation = (tenantId: string, stationId: string) => scoped(tenan
 
 const stationAndWheel = preparedJoined(station, ['stationId'], (value) => ({
   fields: { id: station.id, name: station.name, status: station.status, wheelId: wheel.id },
-  joins: [{ table: wheel, on: and(eq(wheel.stationId, station.id), isNull(wheel.removedAt))!, left: true }],
+  joins: [{ table: wheel, on: and(eq(wheel.stationId, station.id), isNull(wheel.removedAt))!, left: true, index: 'wheel_tenant_station_idx' }],
   where: eq(station.id, value('stationId')),
+  index: 'PRIMARY',
   limit: 1,
 }));
 
@@ -115,8 +116,9 @@ export function listTickets(tenantId: string, filter: { states: TicketState[]; s
 }
 
 /**
- * A ticket with its customer and its pairs, a row per pair (one row with null pair fields when it has none), in
- * position order. With the two reads below it is the whole ticket: three statements, where a read per part took five.
+ * A ticket with its customer and its pairs, a row per pair (one row with null pair fields when it has none). With
+ * the two reads below it is the whole ticket: three statements, where a read per part took five. Neither of the two
+ * is ordered in SQL: ordering by a joined table's column cost each a temporary table, two fifths of its time.
  */
 const ticketWithPairs = preparedJoined(ticket, ['ticketId'], (value) => ({
   fields: {
@@ -145,12 +147,12 @@ const ticketWithPairs = preparedJoined(ticket, ['ticketId'], (value) => ({
     pairNotes: ticketPair.notes,
   },
   joins: [
-    { table: customer, on: eq(customer.id, ticket.customerId) },
-    { table: ticketPair, on: eq(ticketPair.ticketId, ticket.id), left: true },
-    { table: serviceItem, on: eq(serviceItem.id, ticketPair.serviceId), left: true },
+    { table: customer, on: eq(customer.id, ticket.customerId), index: 'PRIMARY' },
+    { table: ticketPair, on: eq(ticketPair.ticketId, ticket.id), left: true, index: 'ticket_pair_tenant_ticket_position_unique' },
+    { table: serviceItem, on: eq(serviceItem.id, ticketPair.serviceId), left: true, index: 'PRIMARY' },
   ],
   where: eq(ticket.id, value('ticketId')),
-  orderBy: asc(ticketPair.position),
+  index: 'PRIMARY',
 }));
 
 /** The ticket's sharpenings, a row per reading (one row with null reading fields when it has none). */
@@ -168,6 +170,7 @@ const sharpeningsWithReadings = preparedJoined(sharpening, ['ticketId'], (value)
     doneAt: sharpening.doneAt,
     correctsId: sharpening.correctsId,
     correctionReason: sharpening.correctionReason,
+    createdAt: sharpening.createdAt,
     readingId: levelReading.id,
     blade: levelReading.blade,
     attempt: levelReading.attempt,
@@ -178,12 +181,12 @@ const sharpeningsWithReadings = preparedJoined(sharpening, ['ticketId'], (value)
     takenBy: sql<string>`(select ${qualified(user, user.name)} from ${user} where ${qualified(user, user.id)} = ${qualified(levelReading, levelReading.takenBy)})`,
   },
   joins: [
-    { table: station, on: eq(station.id, sharpening.stationId) },
+    { table: station, on: eq(station.id, sharpening.stationId), index: 'PRIMARY' },
     { table: user, on: eq(user.id, sharpening.technicianId) },
-    { table: levelReading, on: eq(levelReading.sharpeningId, sharpening.id), left: true },
+    { table: levelReading, on: eq(levelReading.sharpeningId, sharpening.id), left: true, index: 'level_reading_tenant_sharpening_idx' },
   ],
   where: eq(sharpening.ticketId, value('ticketId')),
-  orderBy: [asc(sharpening.createdAt), asc(sharpening.id), asc(levelReading.blade), asc(levelReading.attempt)],
+  index: 'sharpening_tenant_ticket_idx',
 }));
 
 const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
@@ -198,19 +201,35 @@ const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
   },
   joins: [
     { table: user, on: eq(user.id, ticketEvent.byUserId) },
-    { table: station, on: eq(station.id, ticketEvent.stationId), left: true },
+    { table: station, on: eq(station.id, ticketEvent.stationId), left: true, index: 'PRIMARY' },
   ],
   where: eq(ticketEvent.ticketId, value('ticketId')),
+  index: 'ticket_event_tenant_ticket_idx',
   orderBy: [asc(ticketEvent.at), asc(ticketEvent.id)],
 }));
 
-/** A ticket as it stands in `s`, with its pairs, sharpenings, readings and history; every ticket page and every counter write answers with it. */
+const byText = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
+
+/**
+ * A ticket as it stands in `s`, with its pairs, sharpenings, readings and history; every ticket page and every
+ * counter write answers with it. Pairs come by position; sharpenings in the order they were written, each one's
+ * readings by blade (left first) and attempt; the history in time order.
+ */
 export async function ticketRows(s: Scope, ticketId: string) {
   const [pairs, sharpenings, events] = await Promise.all([
     s.run(ticketWithPairs, { ticketId }),
     s.run(sharpeningsWithReadings, { ticketId }),
     s.run(eventsOfTicket, { ticketId }),
   ]);
+  pairs.sort((a, b) => a.position - b.position);
+  sharpenings.sort(
+    (a, b) =>
+      a.createdAt.getTime() - b.createdAt.getTime() ||
+      byText(a.id, b.id) ||
+      // A sharpening without readings has one row, whose reading fields are null.
+      byText(a.blade ?? '', b.blade ?? '') ||
+      (a.attempt ?? 0) - (b.attempt ?? 0),
+  );
   return { pairs, sharpenings, events };
 }
 

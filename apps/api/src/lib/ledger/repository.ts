@@ -97,8 +97,9 @@ export function lotsOf(s: Scope, accountIds: string[], options: { liveOnly?: boo
 // balance's count only, so the lots' product names are not read.
 const accountWithLots = preparedJoined(creditAccount, ['customerId'], (value) => ({
   fields: { ...standingFields(), lockedAccountId: creditAccount.id },
-  joins: [{ table: creditLot, on: eq(creditLot.accountId, creditAccount.id), left: true }],
+  joins: [{ table: creditLot, on: eq(creditLot.accountId, creditAccount.id), left: true, index: 'credit_lot_tenant_account_idx' }],
   where: eq(creditAccount.customerId, value('customerId')),
+  index: 'credit_account_tenant_customer_unique',
   // Ordered here, not in SQL: ordering by the joined table would cost a temporary table on every redemption.
   lock: true,
 }));
