@@ -153,7 +153,8 @@ export const sharpening = mysqlTable(
     // The report refresh: what was written since it last ran, and a day's pairs across stations.
     index('sharpening_tenant_created_idx').on(t.tenantId, t.createdAt),
     index('sharpening_tenant_done_idx').on(t.tenantId, t.doneAt),
-    index('sharpening_tenant_ticket_idx').on(t.tenantId, t.ticketId),
+    // A ticket's records, and how many of its pairs are done from the index alone (the ticket list counts them).
+    index('sharpening_tenant_ticket_pair_idx').on(t.tenantId, t.ticketId, t.ticketPairId),
     index('sharpening_tenant_pair_idx').on(t.tenantId, t.ticketPairId),
     // A wheel's passes, summed from the index alone; and the corrections of a record.
     index('sharpening_tenant_wheel_idx').on(t.tenantId, t.wheelId, t.correctsId, t.doneAt, t.passes),

@@ -186,7 +186,7 @@ const sharpeningsWithReadings = preparedJoined(sharpening, ['ticketId'], (value)
     { table: levelReading, on: eq(levelReading.sharpeningId, sharpening.id), left: true, index: 'level_reading_tenant_sharpening_idx' },
   ],
   where: eq(sharpening.ticketId, value('ticketId')),
-  index: 'sharpening_tenant_ticket_idx',
+  index: 'sharpening_tenant_ticket_pair_idx',
 }));
 
 const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({

@@ -1,0 +1,1 @@
+CREATE INDEX `sharpening_tenant_ticket_pair_idx` ON `sharpening` (`tenant_id`,`ticket_id`,`ticket_pair_id`);

@@ -1,0 +1,1 @@
+DROP INDEX `sharpening_tenant_ticket_idx` ON `sharpening`;
