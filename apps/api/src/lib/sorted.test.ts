@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { firstIndex, groupBy, runningTotals } from './sorted';
+import { compareText, firstIndex, groupBy, runningTotals } from './sorted';
 
 describe('sorted-list helpers', () => {
   it('finds the first index where a condition starts to hold, by bisection', () => {
@@ -22,5 +22,11 @@ describe('sorted-list helpers', () => {
       ['a', [{ w: 'a', n: 1 }, { w: 'a', n: 3 }]],
       ['b', [{ w: 'b', n: 2 }]],
     ]);
+  });
+
+  it('orders text by code unit, as the default sort does', () => {
+    const ids = ['b2', 'B1', 'a10', 'a9', 'a9'];
+    expect([...ids].sort(compareText)).toEqual([...ids].sort());
+    expect([compareText('left', 'right'), compareText('right', 'left'), compareText('a9', 'a9')]).toEqual([-1, 1, 0]);
   });
 });

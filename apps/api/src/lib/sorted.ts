@@ -19,6 +19,9 @@ export function runningTotals(values: readonly number[]): number[] {
   return totals;
 }
 
+/** Orders text as MariaDB's binary collation and JS's default sort do, by code unit (ids, enum names). */
+export const compareText = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
+
 /** The items of a list by key, each group in the list's own order. */
 export function groupBy<T, K>(items: readonly T[], keyOf: (item: T) => K): Map<K, T[]> {
   const groups = new Map<K, T[]>();

@@ -19,6 +19,7 @@ import {
   type Scope,
 } from '@rinkwright/db';
 import type { TicketState } from '@rinkwright/core';
+import { compareText } from '../../lib/sorted';
 
 export type TicketRow = typeof ticket.$inferSelect;
 type NewPair = Omit<typeof ticketPair.$inferInsert, 'tenantId'>;
@@ -69,10 +70,8 @@ export async function insertTicket(tenantId: string, row: Omit<TicketRow, 'tenan
   }
 }
 
-/** A ticket as the lists show it: its customer, and how many of its pairs are done, counted in the query. */
-function summaryFields() {
-  const pairs = sql<number>`(select count(*) from ${ticketPair} where ${ticketPair.tenantId} = ${ticket.tenantId} and ${ticketPair.ticketId} = ${ticket.id})`.mapWith(Number);
-  const done = sql<number>`(select count(distinct ${sharpening.ticketPairId}) from ${sharpening} where ${sharpening.tenantId} = ${ticket.tenantId} and ${sharpening.ticketId} = ${ticket.id})`.mapWith(Number);
+/** A ticket's own fields as the lists and its page show them, with its customer. */
+function ticketHeadFields() {
   return {
     id: ticket.id,
     number: ticket.number,
@@ -85,9 +84,14 @@ function summaryFields() {
     customerId: customer.id,
     customerName: customer.name,
     memberCode: customer.memberCode,
-    pairCount: pairs,
-    pairsDone: done,
   };
+}
+
+/** A ticket as the lists show it, and how many of its pairs are done, counted in the query. */
+function summaryFields() {
+  const pairs = sql<number>`(select count(*) from ${ticketPair} where ${ticketPair.tenantId} = ${ticket.tenantId} and ${ticketPair.ticketId} = ${ticket.id})`.mapWith(Number);
+  const done = sql<number>`(select count(distinct ${sharpening.ticketPairId}) from ${sharpening} where ${sharpening.tenantId} = ${ticket.tenantId} and ${sharpening.ticketId} = ${ticket.id})`.mapWith(Number);
+  return { ...ticketHeadFields(), pairCount: pairs, pairsDone: done };
 }
 
 function ticketList(shape: { states: TicketState[]; byStation: boolean; byCustomer: boolean }) {
@@ -122,19 +126,9 @@ export function listTickets(tenantId: string, filter: { states: TicketState[]; s
  */
 const ticketWithPairs = preparedJoined(ticket, ['ticketId'], (value) => ({
   fields: {
-    id: ticket.id,
-    number: ticket.number,
-    state: ticket.state,
-    stationId: ticket.stationId,
-    payment: ticket.payment,
-    droppedAt: ticket.droppedAt,
-    promisedAt: ticket.promisedAt,
-    readyAt: ticket.readyAt,
+    ...ticketHeadFields(),
     notes: ticket.notes,
     voidReason: ticket.voidReason,
-    customerId: customer.id,
-    customerName: customer.name,
-    memberCode: customer.memberCode,
     pairId: ticketPair.id,
     position: ticketPair.position,
     label: ticketPair.label,
@@ -208,8 +202,6 @@ const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
   orderBy: [asc(ticketEvent.at), asc(ticketEvent.id)],
 }));
 
-const byText = (a: string, b: string) => (a < b ? -1 : a > b ? 1 : 0);
-
 /**
  * A ticket as it stands in `s`, with its pairs, sharpenings, readings and history; every ticket page and every
  * counter write answers with it. Pairs come by position; sharpenings in the order they were written, each one's
@@ -225,9 +217,9 @@ export async function ticketRows(s: Scope, ticketId: string) {
   sharpenings.sort(
     (a, b) =>
       a.createdAt.getTime() - b.createdAt.getTime() ||
-      byText(a.id, b.id) ||
+      compareText(a.id, b.id) ||
       // A sharpening without readings has one row, whose reading fields are null.
-      byText(a.blade ?? '', b.blade ?? '') ||
+      compareText(a.blade ?? '', b.blade ?? '') ||
       (a.attempt ?? 0) - (b.attempt ?? 0),
   );
   return { pairs, sharpenings, events };

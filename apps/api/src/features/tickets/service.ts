@@ -17,6 +17,7 @@ import { AppError } from '../../http/errors';
 import type { RinkContext } from '../../http/route';
 import { readDeskSettings } from '../../lib/desk-settings';
 import { noticeMail, type Mailer } from '../../lib/mailer';
+import { groupBy } from '../../lib/sorted';
 import { scoped, type Scope } from '@rinkwright/db';
 import * as ledger from '../../lib/ledger/ledger';
 import * as repo from './repository';
@@ -187,33 +188,28 @@ export async function describeTicket(s: Scope, ticketId: string): Promise<Ticket
   const rows = await repo.ticketRows(s, ticketId);
   const head = rows.pairs[0];
   if (!head) throw AppError.notFound(TICKET_NOT_FOUND);
-  // A row per reading: a sharpening is its first row, and each row that carries a reading adds it.
-  const sharpenings = new Map<string, TicketDetail['pairs'][number]['sharpenings'][number] & { ticketPairId: string }>();
-  for (const r of rows.sharpenings) {
-    let done = sharpenings.get(r.id);
-    if (!done) {
-      done = {
-        id: r.id,
-        ticketPairId: r.ticketPairId,
-        stationId: r.stationId,
-        stationName: r.stationName,
-        wheelId: r.wheelId,
-        technician: r.technician,
-        hollowNm: r.hollowNm,
-        passes: r.passes,
-        bladeWidthNm: r.bladeWidthNm,
-        doneAt: r.doneAt.toISOString(),
-        correctsId: r.correctsId,
-        correctionReason: r.correctionReason,
-        readings: [],
-      };
-      sharpenings.set(r.id, done);
-    }
-    if (r.readingId !== null) {
-      done.readings.push({ id: r.readingId, blade: r.blade, attempt: r.attempt, readingNm: r.readingNm, tiltMillideg: r.tiltMillideg, takenAt: r.takenAt.toISOString(), takenBy: r.takenBy });
-    }
-  }
-  const done = [...sharpenings.values()];
+  // A row per reading (one, with null reading fields, for a sharpening without any), in order.
+  const done = [...groupBy(rows.sharpenings, (r) => r.id).values()].map((group) => {
+    const r = group[0]!;
+    return {
+      id: r.id,
+      ticketPairId: r.ticketPairId,
+      stationId: r.stationId,
+      stationName: r.stationName,
+      wheelId: r.wheelId,
+      technician: r.technician,
+      hollowNm: r.hollowNm,
+      passes: r.passes,
+      bladeWidthNm: r.bladeWidthNm,
+      doneAt: r.doneAt.toISOString(),
+      correctsId: r.correctsId,
+      correctionReason: r.correctionReason,
+      readings: group
+        .filter((g) => g.readingId !== null)
+        .map((g) => ({ id: g.readingId, blade: g.blade, attempt: g.attempt, readingNm: g.readingNm, tiltMillideg: g.tiltMillideg, takenAt: g.takenAt.toISOString(), takenBy: g.takenBy })),
+    };
+  });
+  const byPair = groupBy(done, (d) => d.ticketPairId);
   // A ticket without pairs is one row whose pair fields are all null (the left join).
   const pairs = rows.pairs.flatMap((p) =>
     p.pairId === null
@@ -230,12 +226,12 @@ export async function describeTicket(s: Scope, ticketId: string): Promise<Ticket
             serviceName: p.serviceName,
             priceMinor: p.priceMinor,
             notes: p.pairNotes,
-            sharpenings: done.filter((d) => d.ticketPairId === p.pairId),
+            sharpenings: byPair.get(p.pairId) ?? [],
           },
         ],
   );
   return {
-    ...toSummary({ ...head, pairCount: pairs.length, pairsDone: new Set(done.map((d) => d.ticketPairId)).size }),
+    ...toSummary({ ...head, pairCount: pairs.length, pairsDone: byPair.size }),
     notes: head.notes,
     voidReason: head.voidReason,
     pairs,

@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, lte, or, sql } from 'drizzle-orm';
 import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, preparedInsert, preparedJoined, preparedUpdate, product, qualified, user, type Scope } from '@rinkwright/db';
+import { compareText } from '../sorted';
 
 // The ledger's queries. Every function takes the caller's scope, usually a transaction's, so that a whole
 // operation (lock, read lots, write entries, move `remaining`) commits or rolls back as one.
@@ -116,7 +117,7 @@ export async function lockAccountOfCustomerWithLots(s: Scope, customerId: string
   const lots = rows
     .filter((r) => r.id !== null)
     .map(({ lockedAccountId: _account, ...lot }) => ({ ...lot, productName: null }) as LotWithContext)
-    .sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime() || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+    .sort((a, b) => a.createdAt.getTime() - b.createdAt.getTime() || compareText(a.id, b.id));
   return { account: { id: first.lockedAccountId }, lots };
 }
 
