@@ -1,4 +1,4 @@
-import { levelReading, sharpening, ticketPair } from '@rinkwright/db';
+import { levelReading, sharpening, ticket, ticketPair } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
@@ -116,6 +116,12 @@ describe('logging a pair', () => {
       [null, 'waiting', null],
       ['waiting', 'on_station', desk.station.name],
     ]);
+    // The work started when the first pair was logged: the ticket's start is that move's moment, and it stays.
+    const startedAt = async () => (await currentDb().select({ at: ticket.startedAt }).from(ticket).where(eq(ticket.id, made.id)))[0]?.at;
+    const moved = after.events[1]?.at;
+    expect((await startedAt())?.toISOString()).toBe(moved);
+    await logPair(technician, desk, made.id, made.pairs[1]?.id ?? '');
+    expect((await startedAt())?.toISOString()).toBe(moved);
   });
 
   it('refuses a second log of the same pair with 409 and keeps the first', async () => {

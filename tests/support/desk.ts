@@ -70,7 +70,7 @@ export interface TicketBody {
   pairCount: number;
   pairsDone: number;
   pairs: TicketPair[];
-  events: { fromState: string | null; toState: string; stationName: string | null; reason: string | null; by: string }[];
+  events: { fromState: string | null; toState: string; stationName: string | null; reason: string | null; at: string; by: string }[];
 }
 
 /** Takes a ticket in and fails loudly unless it was made, so later steps start from a real ticket. */

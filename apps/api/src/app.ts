@@ -7,7 +7,8 @@ import { rateLimit } from 'express-rate-limit';
 import { pino, type Logger } from 'pino';
 import { pinoHttp } from 'pino-http';
 import { toNodeHandler } from 'better-auth/node';
-import swaggerUi from 'swagger-ui-dist';
+// The folder of the API docs' files only: the package's main module loads the whole browser bundle as well.
+import swaggerUiFolder from 'swagger-ui-dist/absolute-path.js';
 import { connectDb, connectReportsDb, disconnectDb, disconnectReportsDb } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { createAuth, CLIENT_IP_HEADER, trustedOrigins, type Auth } from './auth';
@@ -116,7 +117,7 @@ export function createApp(env: Env): AppBundle {
       "window.onload=function(){window.ui=SwaggerUIBundle({url:'/api/openapi.json',dom_id:'#swagger-ui',presets:[SwaggerUIBundle.presets.apis,SwaggerUIStandalonePreset],layout:'StandaloneLayout'});};",
     );
   });
-  app.use('/api/docs', express.static(swaggerUi.getAbsoluteFSPath(), { index: 'index.html' }));
+  app.use('/api/docs', express.static(swaggerUiFolder(), { index: 'index.html' }));
   app.use('/api', notFoundHandler);
 
   const webDist = env.WEB_DIST ? path.resolve(env.WEB_DIST) : undefined;

@@ -1,10 +1,12 @@
 import { randomUUID } from 'node:crypto';
-import { and, asc, count, desc, eq, gte, inArray, isNull, max, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, getTableColumns, gte, inArray, isNull, max, sql } from 'drizzle-orm';
 import {
   customer,
   isDuplicateKey,
   levelReading,
+  preparedInsert,
   preparedJoined,
+  preparedUpdate,
   qualified,
   scoped,
   serviceItem,
@@ -47,8 +49,20 @@ export const findServices = (s: Scope, ids: string[]) => s.find(serviceItem, { w
 export const findProfiles = (tenantId: string, customerId: string, ids: string[]) =>
   ids.length === 0 ? Promise.resolve([]) : scoped(tenantId).find(skateProfile, { where: and(eq(skateProfile.customerId, customerId), inArray(skateProfile.id, ids)) });
 export const findTicket = (tenantId: string, ticketId: string) => scoped(tenantId).findOne(ticket, eq(ticket.id, ticketId));
+// Logging a pair starts with this lock, so it is built once (like the log's other statements below).
+const ticketLocked = preparedJoined(ticket, ['ticketId'], (value) => ({
+  fields: getTableColumns(ticket),
+  joins: [],
+  where: eq(ticket.id, value('ticketId')),
+  index: 'PRIMARY',
+  lock: true,
+}));
+
 /** Inside a transaction: the ticket with its row locked, so two tablets writing to one ticket take turns. */
-export const lockTicket = async (s: Scope, ticketId: string) => (await s.lock(ticket, eq(ticket.id, ticketId)))[0];
+export async function lockTicket(s: Scope, ticketId: string): Promise<TicketRow | undefined> {
+  const [row] = await s.run(ticketLocked, { ticketId });
+  return row;
+}
 
 /** Opens a ticket with its pairs and its first event. The number is the rink's next; a race retries. */
 /** `within` runs in the same transaction (the pairs' credits are redeemed there, so a refusal keeps no ticket). */
@@ -94,10 +108,17 @@ function summaryFields() {
   return { ...ticketHeadFields(), pairCount: pairs, pairsDone: done };
 }
 
+/** The states of the queue: few tickets, read by their state's index. */
+const QUEUE_STATES: readonly TicketState[] = ['waiting', 'on_station', 'ready'];
+
 function ticketList(shape: { states: TicketState[]; byStation: boolean; byCustomer: boolean }) {
+  // The queue's lists are read by state (named, so MariaDB skips weighing the other indexes on every poll); a
+  // customer's list, or one of done tickets, is left to the planner.
+  const queue = !shape.byCustomer && shape.states.every((state) => QUEUE_STATES.includes(state));
   return preparedJoined(ticket, ['stationId', 'customerId'], (value) => ({
     fields: summaryFields(),
-    joins: [{ table: customer, on: eq(customer.id, ticket.customerId) }],
+    joins: [{ table: customer, on: eq(customer.id, ticket.customerId), index: 'PRIMARY' }],
+    index: queue ? 'ticket_tenant_state_idx' : undefined,
     where: and(
       inArray(ticket.state, shape.states),
       shape.byStation ? eq(ticket.stationId, value('stationId')) : undefined,
@@ -246,7 +267,7 @@ export async function moveTicket(
 const pairAndCount = preparedJoined(ticketPair, ['pairId', 'ticketId'], (value) => ({
   fields: {
     id: ticketPair.id,
-    logged: sql<number>`(select count(*) from ${sharpening} where ${sharpening.tenantId} = ${qualified(ticketPair, ticketPair.tenantId)} and ${sharpening.ticketPairId} = ${qualified(ticketPair, ticketPair.id)} and ${sharpening.correctsId} is null)`.mapWith(Number),
+    logged: sql<number>`(select count(*) from ${sharpening} use index (sharpening_tenant_pair_idx) where ${sharpening.tenantId} = ${qualified(ticketPair, ticketPair.tenantId)} and ${sharpening.ticketPairId} = ${qualified(ticketPair, ticketPair.id)} and ${sharpening.correctsId} is null)`.mapWith(Number),
   },
   joins: [],
   where: and(eq(ticketPair.id, value('pairId')), eq(ticketPair.ticketId, value('ticketId'))),
@@ -258,11 +279,17 @@ export async function pairOfTicket(s: Scope, ticketId: string, pairId: string) {
   return row;
 }
 
+const toStation = preparedUpdate(ticket, ['ticketId', 'stationId', 'startedAt'], (value) => ({
+  set: { state: 'on_station' as const, stationId: sql`${value('stationId')}`, startedAt: sql`${value('startedAt')}` },
+  where: eq(ticket.id, value('ticketId')),
+}));
+const eventInsert = preparedInsert(ticketEvent, ['id', 'ticketId', 'fromState', 'toState', 'stationId', 'reason', 'at', 'byUserId']);
+
 /** Puts the ticket on a station, as the technician would by hand, with its event. */
 export async function putOnStation(s: Scope, from: TicketRow, to: { stationId: string; at: Date; byUserId: string }) {
   const { stationId, at, byUserId } = to;
-  await s.update(ticket, { state: 'on_station', stationId, startedAt: from.startedAt ?? at }, eq(ticket.id, from.id));
-  await s.insert(ticketEvent, { id: randomUUID(), ticketId: from.id, fromState: from.state, toState: 'on_station', stationId, reason: null, at, byUserId });
+  await s.runUpdate(toStation, { ticketId: from.id, stationId, startedAt: from.startedAt ?? at });
+  await s.insertOne(eventInsert, { id: randomUUID(), ticketId: from.id, fromState: from.state, toState: 'on_station', stationId, reason: null, at, byUserId });
 }
 
 /** A pair added to the ticket after the last one. Under the ticket's lock, so two new pairs never share a position. */
@@ -271,8 +298,23 @@ export async function insertPair(s: Scope, pair: Omit<NewPair, 'position'>) {
   await s.insert(ticketPair, { ...pair, position: (last?.n ?? 0) + 1 });
 }
 
-export async function insertSharpening(s: Scope, row: NewSharpening, readings: NewReading[]) {
-  await s.insert(sharpening, row);
+const sharpeningInsert = preparedInsert(sharpening, [
+  'id',
+  'ticketId',
+  'ticketPairId',
+  'stationId',
+  'wheelId',
+  'technicianId',
+  'hollowNm',
+  'passes',
+  'bladeWidthNm',
+  'doneAt',
+  'correctsId',
+  'correctionReason',
+]);
+
+export async function insertSharpening(s: Scope, row: Required<Omit<NewSharpening, 'createdAt'>>, readings: NewReading[]) {
+  await s.insertOne(sharpeningInsert, row);
   if (readings.length) await s.insert(levelReading, readings);
 }
 
