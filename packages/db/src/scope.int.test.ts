@@ -245,6 +245,18 @@ describe('scoped(tenantId)', () => {
     expect(() => preparedUpdate(user, [], () => ({ set: { name: 'x' }, where: sql`true` })).query()).toThrow(/updated in JS/);
   });
 
+  it('a prepared update names its index to MariaDB', async () => {
+    const w = await twoRinks();
+    const rename = (index: string) =>
+      preparedUpdate(customer, ['id', 'name'], (value) => ({ set: { name: sql`${value('name')}` }, where: eq(customer.id, value('id')), index }));
+
+    expect(await scoped(w.b.id).runUpdate(rename('PRIMARY'), { id: w.customerB.id, name: 'By its key' })).toBe(1);
+    expect(await scoped(w.a.id).runUpdate(rename('PRIMARY'), { id: w.customerB.id, name: 'Not from A' })).toBe(0);
+    expect((await customersOf(w.b.id)).map((c) => c.name).sort()).toEqual(['Another at B', 'By its key']);
+    // MariaDB refuses an index the table does not have (error 1176): the name reached it.
+    await expect(scoped(w.b.id).runUpdate(rename('customer_no_such_idx'), { id: w.customerB.id, name: 'x' })).rejects.toThrow(/customer_no_such_idx/);
+  });
+
   it('a scope bound to a transaction keeps its filter', async () => {
     const w = await twoRinks();
 

@@ -282,6 +282,7 @@ export async function pairOfTicket(s: Scope, ticketId: string, pairId: string) {
 const toStation = preparedUpdate(ticket, ['ticketId', 'stationId', 'startedAt'], (value) => ({
   set: { state: 'on_station' as const, stationId: sql`${value('stationId')}`, startedAt: sql`${value('startedAt')}` },
   where: eq(ticket.id, value('ticketId')),
+  index: 'PRIMARY',
 }));
 const eventInsert = preparedInsert(ticketEvent, ['id', 'ticketId', 'fromState', 'toState', 'stationId', 'reason', 'at', 'byUserId']);
 

@@ -147,6 +147,7 @@ const entryInsert = preparedInsert(creditEntry, [
 const remainingMove = preparedUpdate(creditLot, ['lotId', 'delta'], (value) => ({
   set: { remaining: sql`${creditLot.remaining} + ${value('delta')}` },
   where: and(eq(creditLot.id, value('lotId')), sql`${creditLot.remaining} + ${value('delta')} >= 0`)!,
+  index: 'PRIMARY',
 }));
 
 /** One entry with the prepared insert (a redemption); more in one multi-row statement. */
