@@ -29,6 +29,8 @@ export interface BenchConfig {
   databaseUrl: string;
   authSecret: string;
   apiEntry: string;
+  /** Node's flags for the API, and for the bare endpoint too, so the two run alike. */
+  nodeFlags: string[];
   webDist: string;
   apiPort: number;
   barePort: number;
@@ -296,10 +298,10 @@ export async function runBench(config: BenchConfig): Promise<number> {
   // The API sees only the settings above, never one the shell happens to carry (a replica URL, another port).
   for (const key of Object.keys(envSchema.shape)) if (!(key in apiEnv)) delete process.env[key];
   say(`* starting the API (${path.relative(config.root, config.apiEntry)}, built ${statSync(config.apiEntry).mtime.toISOString()}) on ${apiBase} and the bare endpoint on ${bareBase}`);
-  await config.startService({ name: 'api', args: [config.apiEntry], env: apiEnv, port: config.apiPort, health: `${apiBase}/api/health` });
+  await config.startService({ name: 'api', args: [...config.nodeFlags, config.apiEntry], env: apiEnv, port: config.apiPort, health: `${apiBase}/api/health` });
   await config.startService({
     name: 'bare',
-    args: [path.join(config.root, 'scripts', 'bench', 'bare-server.mjs')],
+    args: [...config.nodeFlags, path.join(config.root, 'scripts', 'bench', 'bare-server.mjs')],
     env: { BARE_PORT: String(config.barePort), DATABASE_URL: config.databaseUrl, DB_POOL_SIZE },
     port: config.barePort,
     health: `${bareBase}/ping`,
@@ -530,7 +532,7 @@ export async function runBench(config: BenchConfig): Promise<number> {
     const results: BenchResults = {
       ranAt: startedAt.toISOString(),
       machine: { ...loadMachine(mariadb), loadAverage: { start: loadAtStart, end: loadAverage() } },
-      settings: { secondsPerRun: seconds, warmupSeconds: config.warmupSeconds, maxRequestsPerRun: MAX_REQUESTS, dbPoolSize: Number(DB_POOL_SIZE), apiBuiltAt: statSync(config.apiEntry).mtime.toISOString() },
+      settings: { secondsPerRun: seconds, warmupSeconds: config.warmupSeconds, maxRequestsPerRun: MAX_REQUESTS, dbPoolSize: Number(DB_POOL_SIZE), apiBuiltAt: statSync(config.apiEntry).mtime.toISOString(), nodeFlags: config.nodeFlags },
       dataset: {
         ...record.size,
         reused,

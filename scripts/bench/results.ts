@@ -20,7 +20,7 @@ type Runs = Record<number, LoadRun>;
 export interface BenchResults {
   ranAt: string;
   machine: { cpu: string; cores: number; memoryGb: number; node: string; mariadb: string; os: string; loadAverage: { start: number[]; end: number[] } };
-  settings: { secondsPerRun: number; warmupSeconds: number; maxRequestsPerRun: number; dbPoolSize: number; apiBuiltAt: string };
+  settings: { secondsPerRun: number; warmupSeconds: number; maxRequestsPerRun: number; dbPoolSize: number; apiBuiltAt: string; nodeFlags: string[] };
   dataset: {
     rinks: number;
     sharpenings: number;

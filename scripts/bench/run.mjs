@@ -13,7 +13,7 @@ import { join } from 'node:path';
 import { BootstrapError, DATA, ROOT, ensureDataDirs, fail, loadSecrets, paths } from '../lib/data.mjs';
 import { stopMariadb } from '../lib/mariadb.mjs';
 import { answers200, onInterrupt, requireFreePorts, spawnDetached, stopGroup, tail, waitUntil } from '../lib/procs.mjs';
-import { API_ENTRY, WEB_DIST, demoPorts, mustRun, prepareSystem, rel } from '../lib/services.mjs';
+import { API_ENTRY, API_NODE_FLAGS, WEB_DIST, demoPorts, mustRun, prepareSystem, rel } from '../lib/services.mjs';
 
 function whole(name, fallback, { min = 1 } = {}) {
   const raw = process.env[name];
@@ -79,6 +79,7 @@ async function main(state) {
       databaseUrl,
       authSecret,
       apiEntry: API_ENTRY,
+      nodeFlags: API_NODE_FLAGS,
       webDist,
       apiPort: whole('BENCH_API_PORT', 3301),
       barePort: whole('BENCH_BARE_PORT', 3302),
