@@ -1,3 +1,4 @@
+import { randomUUID } from 'node:crypto';
 import { levelReading, sharpening, ticket, ticketPair } from '@rinkwright/db';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { eq } from 'drizzle-orm';
@@ -182,6 +183,28 @@ describe('logging a pair', () => {
     expect(neither.status).toBe(400);
     expect(Object.keys(neither.body.error.fields)).toEqual(['pairId']);
     expect(await rowsOf(sharpening, desk.world.id)).toBe(0);
+  });
+
+  it('refuses a pair of another ticket, an unknown station and one not in use (400 fields), and writes nothing', async () => {
+    const desk = await createDesk('Ice Harbor');
+    const manager = await as(desk.world.staff.manager);
+    const made = await takeIn(manager, desk);
+    const other = await takeIn(manager, desk);
+    const parked = await manager
+      .post(`/api/rinks/${desk.world.slug}/stations`)
+      .send({ name: 'Station Two', status: 'maintenance', rpm: 3450, adjustStepMilli: 125 });
+    const pairId = made.pairs[0]?.id;
+
+    const elsewhere = await write(manager, logPath(desk, made.id), logBody(desk, { pairId: other.pairs[0]?.id }));
+    const nowhere = await write(manager, logPath(desk, made.id), logBody(desk, { pairId, stationId: randomUUID() }));
+    const resting = await write(manager, logPath(desk, made.id), logBody(desk, { pairId, stationId: parked.body.id }));
+
+    expect([elsewhere.status, Object.keys(elsewhere.body.error.fields)]).toEqual([400, ['pairId']]);
+    expect([nowhere.status, Object.keys(nowhere.body.error.fields)]).toEqual([400, ['stationId']]);
+    expect([resting.status, resting.body.error.fields.stationId]).toEqual([400, ['Station Two is not active']]);
+    expect(await rowsOf(sharpening, desk.world.id)).toBe(0);
+    // The same pair then logs at the rink's station, on its own ticket.
+    expect((await logPair(manager, desk, made.id, pairId ?? '')).pairsDone).toBe(1);
   });
 });
 

@@ -374,7 +374,7 @@ export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string
   if (open.state !== 'waiting' && open.state !== 'on_station') {
     throw new AppError('conflict', `The ticket is ${open.state.replace('_', ' ')}: reopen it on a station to log more`);
   }
-  const target = activeStation(await repo.stationWithWheel(s, input.stationId));
+  const target = activeStation(await repo.logTarget(s, input.stationId, ticketId, input.newPair ? null : (input.pairId ?? null)));
   assertOneReadingPerBlade(input.readings);
   const now = new Date();
   let pairId: string;
@@ -397,10 +397,9 @@ export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string
       notes: input.newPair.notes,
     };
   } else {
-    const pair = input.pairId ? await repo.pairOfTicket(s, ticketId, input.pairId) : undefined;
-    if (!pair) throw AppError.field('pairId', 'No such pair on this ticket');
-    if (pair.logged > 0) throw new AppError('conflict', ALREADY_LOGGED);
-    pairId = pair.id;
+    if (!target.pairId) throw AppError.field('pairId', 'No such pair on this ticket');
+    if (target.pairLogged > 0) throw new AppError('conflict', ALREADY_LOGGED);
+    pairId = target.pairId;
   }
   if (open.state === 'waiting' || open.stationId !== target.id) await repo.putOnStation(s, open, { stationId: target.id, at: now, byUserId: ctx.userId });
   if (newPair) {
