@@ -1,6 +1,6 @@
 import { and, count as countFn, eq, getTableColumns, sql, type Placeholder, type SQL } from 'drizzle-orm';
 import { getTableConfig, type AnyMySqlColumn, type MySqlTable } from 'drizzle-orm/mysql-core';
-import { currentDb, reportsDb, type Executor } from './client';
+import { currentDb, reportsDb, transaction, type Executor } from './client';
 import { rink } from './schema/index';
 import { isTenantTable } from './tenancy';
 
@@ -368,7 +368,7 @@ export function scoped(tenantId: string, executor?: Executor): Scope {
     /** Runs fn in one transaction with a scope bound to it (a scope already in one reuses it). */
     async transaction(fn) {
       if (executor) return fn(scope);
-      return currentDb().transaction((tx) => fn(scoped(tenantId, tx)));
+      return transaction((tx) => fn(scoped(tenantId, tx)));
     },
   };
   return scope;

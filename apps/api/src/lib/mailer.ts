@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto';
 import { and, asc, eq, isNull, lte } from 'drizzle-orm';
 import nodemailer from 'nodemailer';
 import { isDuplicateKey, outboxMail } from '@rinkwright/db';
-import { currentDb, type Executor } from '@rinkwright/db/unscoped';
+import { currentDb, transaction, type Executor } from '@rinkwright/db/unscoped';
 import type { Logger } from 'pino';
 import type { Env } from '../env';
 
@@ -72,7 +72,7 @@ export function createMailer(env: Env, logger: Logger): Mailer {
     },
     async drain(limit = 20) {
       // SKIP LOCKED lets several API processes drain one outbox without sending a mail twice.
-      return currentDb().transaction(async (tx) => {
+      return transaction(async (tx) => {
         const due = await tx.select().from(outboxMail).where(and(isNull(outboxMail.sentAt), lte(outboxMail.nextAttemptAt, new Date()))).orderBy(asc(outboxMail.nextAttemptAt)).limit(limit).for('update', { skipLocked: true });
         let sent = 0;
         for (const row of due) if (await attempt(row, tx)) sent++;
