@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { asc, eq, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/mysql-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { connectDb, currentDb, disconnectDb } from './client';
 import { dbEnv } from './env';
@@ -90,6 +91,25 @@ describe('scoped(tenantId)', () => {
     });
 
     expect(rows).toEqual([{ customerId: w.customerA.id, memberId: w.memberA.id, role: 'technician', email: w.shared.email }]);
+  });
+
+  it('a join by alias is filtered by the table behind it, not by the name it is given', async () => {
+    const w = await twoRinks();
+    // A global table a second time (as the ticket's readings join the user who took each): no tenant condition.
+    const person = alias(user, 'person');
+    const named = await scoped(w.a.id).findJoined(customer, {
+      fields: { customerId: customer.id, person: person.name },
+      joins: [{ table: person, on: eq(person.id, customer.userId) }],
+    });
+    expect(named).toEqual([{ customerId: w.customerA.id, person: 'Shared Sharpener' }]);
+
+    // A tenant table under a global table's name keeps its tenant condition: B's customer of the same person stays out.
+    const sameSkater = alias(customer, 'user');
+    const rows = await scoped(w.a.id).findJoined(customer, {
+      fields: { customerId: customer.id, otherId: sameSkater.id },
+      joins: [{ table: sameSkater, on: eq(sameSkater.userId, customer.userId) }],
+    });
+    expect(rows).toEqual([{ customerId: w.customerA.id, otherId: w.customerA.id }]);
   });
 
   it('qualified names the outer row in a subquery of a one-table select, where a bare column is the inner one', async () => {

@@ -36,7 +36,10 @@ interface Join {
   on: SQL;
   /** A left join: the row is kept when nothing matches, and the joined table's fields are null. */
   left?: true;
-  /** The one index MariaDB may read this table by (USE INDEX): see `JoinedOptions.index`. */
+  /**
+   * The one index MariaDB may read this table by (USE INDEX): see `JoinedOptions.index`. Not on an alias: drizzle-orm
+   * writes the hint before the alias's name, which MariaDB refuses as a syntax error.
+   */
   index?: string;
 }
 
@@ -132,12 +135,22 @@ export function qualified(table: MySqlTable, column: AnyMySqlColumn): SQL {
 
 const tenantColumns = new WeakMap<MySqlTable, AnyMySqlColumn>();
 
+/** Drizzle's own key for a table's name before any alias (`alias(user, 'taker')` is still the user table). */
+const ORIGINAL_NAME = Symbol.for('drizzle:OriginalName');
+
+/** Whether rows of this table, or of the table it is an alias of, belong to one rink (the alias's name is not asked). */
+function holdsTenantRows(table: MySqlTable): boolean {
+  const name = (table as unknown as Record<symbol, unknown>)[ORIGINAL_NAME];
+  if (typeof name !== 'string') throw new Error('drizzle-orm keeps no original name on this table: holdsTenantRows needs updating');
+  return isTenantTable(name);
+}
+
 /** The column named tenant_id, whatever its property name (better-auth's tables call it organizationId). */
 export function tenantColumnOf(table: MySqlTable): AnyMySqlColumn {
   const cached = tenantColumns.get(table);
   if (cached) return cached;
   const config = getTableConfig(table);
-  if (!isTenantTable(config.name)) throw new Error(`${config.name} is not a tenant table`);
+  if (!holdsTenantRows(table)) throw new Error(`${config.name} is not a tenant table`);
   const column = config.columns.find((c) => c.name === 'tenant_id');
   if (!column) throw new Error(`${config.name} has no tenant_id column`);
   tenantColumns.set(table, column);
@@ -267,7 +280,7 @@ function boundTo<Q extends PreparedStatement>(statement: Q, executor: Executor):
 /** The queries of a scope, unawaited; the tenant is a value or, for a prepared select, a placeholder. */
 function queriesOf(tenantId: string | Placeholder, exec: () => Executor) {
   const filter = (table: MySqlTable, where?: SQL) => and(eq(tenantColumnOf(table), tenantId), where) as SQL;
-  const joinOn = (join: Join) => (isTenantTable(getTableConfig(join.table).name) ? filter(join.table, join.on) : join.on);
+  const joinOn = (join: Join) => (holdsTenantRows(join.table) ? filter(join.table, join.on) : join.on);
   const finish = (query: Chain, options: FindOptions): Chain => {
     if (options.groupBy?.length) query = query.groupBy(...options.groupBy);
     const order = orderList(options.orderBy);

@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { and, asc, count, desc, eq, getTableColumns, gte, inArray, isNull, max, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/mysql-core';
 import {
   customer,
   isDuplicateKey,
@@ -157,6 +158,9 @@ const ticketWithPairs = preparedJoined(ticket, ['ticketId'], (value) => ({
   index: 'PRIMARY',
 }));
 
+/** Who took a reading: the user table a second time, beside the sharpening's technician. */
+const taker = alias(user, 'taker');
+
 /** The ticket's sharpenings, a row per reading (one row with null reading fields when it has none). */
 const sharpeningsWithReadings = preparedJoined(sharpening, ['ticketId'], (value) => ({
   fields: {
@@ -179,13 +183,13 @@ const sharpeningsWithReadings = preparedJoined(sharpening, ['ticketId'], (value)
     readingNm: levelReading.readingNm,
     tiltMillideg: levelReading.tiltMillideg,
     takenAt: levelReading.takenAt,
-    // The user table is joined once already (the technician); the reading's taker is read beside it.
-    takenBy: sql<string>`(select ${qualified(user, user.name)} from ${user} where ${qualified(user, user.id)} = ${qualified(levelReading, levelReading.takenBy)})`,
+    takenBy: taker.name,
   },
   joins: [
     { table: station, on: eq(station.id, sharpening.stationId), index: 'PRIMARY' },
     { table: user, on: eq(user.id, sharpening.technicianId) },
     { table: levelReading, on: eq(levelReading.sharpeningId, sharpening.id), left: true, index: 'level_reading_tenant_sharpening_idx' },
+    { table: taker, on: eq(taker.id, levelReading.takenBy), left: true },
   ],
   where: eq(sharpening.ticketId, value('ticketId')),
   index: 'sharpening_tenant_ticket_pair_idx',
