@@ -17,10 +17,20 @@ export interface Goal {
 
 type Runs = Record<number, LoadRun>;
 
+/** One pair of redemption runs, API and bare, made one after the other. */
+export interface RedemptionRound {
+  round: number;
+  connections: number;
+  api: LoadRun;
+  bare: LoadRun;
+  throughputRatio: number;
+  p99Ratio: number;
+}
+
 export interface BenchResults {
   ranAt: string;
   machine: { cpu: string; cores: number; memoryGb: number; node: string; mariadb: string; os: string; loadAverage: { start: number[]; end: number[] } };
-  settings: { secondsPerRun: number; warmupSeconds: number; maxRequestsPerRun: number; dbPoolSize: number; apiBuiltAt: string; nodeFlags: string[] };
+  settings: { secondsPerRun: number; warmupSeconds: number; maxRequestsPerRun: number; redemptionRounds: number; dbPoolSize: number; apiBuiltAt: string; nodeFlags: string[] };
   dataset: {
     rinks: number;
     sharpenings: number;
@@ -33,8 +43,10 @@ export interface BenchResults {
     ledger: LedgerCheck;
   };
   redemption: {
+    /** The runs of the round each goal was judged on (see `rounds`). */
     api: Runs;
     bare: Runs;
+    rounds: RedemptionRound[];
     correctness: Record<'api' | 'bare', { granted: number; redeemed: number; answered201: number; cutOff: number; finalBalance: number; exact: boolean; ledger: LedgerCheck }>;
   };
   counter: Record<string, Runs>;
@@ -52,6 +64,7 @@ export function toMarkdown(r: BenchResults): string {
   const lines = [
     `Measured by \`pnpm bench\` on ${r.ranAt.slice(0, 10)}: ${m.cpu}, ${m.cores} cores, ${m.memoryGb} GB, Node ${m.node}, MariaDB ${m.mariadb} (load average ${m.loadAverage.start.join(' / ')} at the start). ` +
       `The load generator (autocannon) runs on the same machine over loopback; each run lasts ${r.settings.secondsPerRun} s after a ${r.settings.warmupSeconds} s warm-up. ` +
+      `The redemption runs come from the median of ${r.settings.redemptionRounds} rounds at each connection count, each round an API and a bare run one after the other, which of them first alternating. ` +
       `Data set: ${fmt(d.rinks)} rinks, ${fmt(d.sharpenings)} sharpenings, ${fmt(d.ledgerEntries)} ledger entries (seeded in ${d.seedSeconds} s).`,
     '',
     '| Goal | Measured | Met |',
