@@ -17,7 +17,7 @@ export interface DbHandle {
 
 /**
  * Transactions on connections that run with autocommit off, the way JDBC's setAutoCommit(false) does: InnoDB
- * starts a transaction with the first statement, so none is spent on BEGIN (a redemption makes seven), and every
+ * starts a transaction with the first statement, so none is spent on BEGIN (one of the seven a redemption made), and every
  * one ends in COMMIT or ROLLBACK before its connection goes back to the pool. Only this function takes
  * connections from that pool; a connection it cannot roll back is destroyed, never reused.
  */
