@@ -18,7 +18,7 @@ export default defineConfig({
       {
         test: {
           name: 'unit',
-          include: ['apps/*/src/**/*.test.{ts,tsx}', 'packages/*/src/**/*.test.ts', 'tests/architecture/**/*.test.ts'],
+          include: ['apps/*/src/**/*.test.{ts,tsx}', 'packages/*/src/**/*.test.ts', 'scripts/bench/**/*.test.ts', 'tests/architecture/**/*.test.ts'],
           exclude: ['**/*.int.test.ts', '**/node_modules/**'],
           environment: 'node',
         },

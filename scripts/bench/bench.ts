@@ -274,6 +274,7 @@ function loadMachine(mariadb: string) {
   };
 }
 
+const stolen = (run: LoadRun) => (run.cpuStolenPercent === null ? '' : `, CPU stolen ${run.cpuStolenPercent}%`);
 const loadAverage = () => os.loadavg().map((x) => Math.round(x * 100) / 100);
 
 export async function runBench(config: BenchConfig): Promise<number> {
@@ -379,7 +380,7 @@ export async function runBench(config: BenchConfig): Promise<number> {
               ? await measure(spec(label, apiBase, connections, redeemRequest('api', connections, round), { ...apiJson, cookie: await technician.fresh() }))
               : await measure(spec(label, bareBase, connections, redeemRequest('bare', connections, round), { 'content-type': 'application/json' }));
           runs[target] = run;
-          say(`  round ${round}, ${run.label}: ${fmt(run.okPerSecond)} redemptions/s, p50 ${run.latencyMs.p50} ms, p99 ${run.latencyMs.p99} ms, non-2xx ${run.non2xx}, errors ${run.errors}`);
+          say(`  round ${round}, ${run.label}: ${fmt(run.okPerSecond)} redemptions/s, p50 ${run.latencyMs.p50} ms, p99 ${run.latencyMs.p99} ms, non-2xx ${run.non2xx}, errors ${run.errors}${stolen(run)}`);
         }
         const api = runs.api!;
         const bare = runs.bare!;
@@ -473,7 +474,7 @@ export async function runBench(config: BenchConfig): Promise<number> {
         const headers = e.client ? { ...e.headers, cookie: await e.client.fresh() } : e.headers;
         const { run } = await measure(spec(`${e.label}, ${connections} connections`, e.base, connections, e.request(), headers, e.max, e.warmup));
         (counter[e.key] ??= {})[connections] = run;
-        say(`  ${run.label}: ${fmt(run.okPerSecond)}/s, p50 ${run.latencyMs.p50} ms, p99 ${run.latencyMs.p99} ms, non-2xx ${run.non2xx}, errors ${run.errors}`);
+        say(`  ${run.label}: ${fmt(run.okPerSecond)}/s, p50 ${run.latencyMs.p50} ms, p99 ${run.latencyMs.p99} ms, non-2xx ${run.non2xx}, errors ${run.errors}${stolen(run)}`);
       }
     }
     const closed = await closeLoadTickets(pool, { tenantId: large.id, ticketIds: loadTickets.ticketIds, byUserId: technicianId });

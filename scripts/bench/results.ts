@@ -65,21 +65,22 @@ export function toMarkdown(r: BenchResults): string {
     `Measured by \`pnpm bench\` on ${r.ranAt.slice(0, 10)}: ${m.cpu}, ${m.cores} cores, ${m.memoryGb} GB, Node ${m.node}, MariaDB ${m.mariadb} (load average ${m.loadAverage.start.join(' / ')} at the start). ` +
       `The load generator (autocannon) runs on the same machine over loopback; each run lasts ${r.settings.secondsPerRun} s after a ${r.settings.warmupSeconds} s warm-up. ` +
       `The redemption runs come from the median of ${r.settings.redemptionRounds} rounds at each connection count, each round an API and a bare run one after the other, which of them first alternating. ` +
+      `CPU stolen is the share of the machine's CPU time that the hypervisor gave to other guests during a run (steal in /proc/stat): the more was stolen, the less of the machine the run had. ` +
       `Data set: ${fmt(d.rinks)} rinks, ${fmt(d.sharpenings)} sharpenings, ${fmt(d.ledgerEntries)} ledger entries (seeded in ${d.seedSeconds} s).`,
     '',
     '| Goal | Measured | Met |',
     '|---|---|---|',
     ...r.goals.map((g) => `| ${g.goal} | ${g.measured} | ${verdict(g.met)} |`),
     '',
-    '| Load run | Connections | 2xx per second | p50 (ms) | p99 (ms) | non-2xx |',
-    '|---|---|---|---|---|---|',
+    '| Load run | Connections | 2xx per second | p50 (ms) | p99 (ms) | non-2xx | CPU stolen (%) |',
+    '|---|---|---|---|---|---|---|',
   ];
   const runs = [
     ...Object.values(r.redemption.bare),
     ...Object.values(r.redemption.api),
     ...Object.values(r.counter).flatMap((byConnections) => Object.values(byConnections)),
   ];
-  for (const run of runs) lines.push(`| ${run.label.replace(/, \d+ connections$/, '')} | ${run.connections} | ${fmt(run.okPerSecond)} | ${run.latencyMs.p50} | ${run.latencyMs.p99} | ${run.non2xx + run.errors} |`);
+  for (const run of runs) lines.push(`| ${run.label.replace(/, \d+ connections$/, '')} | ${run.connections} | ${fmt(run.okPerSecond)} | ${run.latencyMs.p50} | ${run.latencyMs.p99} | ${run.non2xx + run.errors} | ${run.cpuStolenPercent ?? '–'} |`);
   if (r.reports.available) {
     lines.push('', '| Report (90 days, large rink) | p50 (ms) | p95 (ms) |', '|---|---|---|');
     lines.push(`| throughput | ${r.reports.throughput.p50} | ${r.reports.throughput.p95} |`);
