@@ -96,3 +96,17 @@ describe('transaction()', () => {
     expect(await transaction(async (tx) => ((await tx.execute(sql`select @@autocommit as a`)) as unknown as [{ a: number }[]])[0][0]!.a)).toBe(0);
   });
 });
+
+describe('the pools', () => {
+  const switches = async (db: Database) => ((await db.execute(sql`select @@session.optimizer_switch as s`)) as unknown as [{ s: string }[]])[0][0]!.s;
+
+  it('turn off the subquery cache on every connection, for reads and in transactions', async () => {
+    // More reads at once than the pool has connections, so every connection it opens answers one.
+    const seen = await Promise.all(Array.from({ length: LIMIT * 2 }, () => switches(currentDb())));
+    seen.push(...(await Promise.all(Array.from({ length: LIMIT * 2 }, () => transaction(switches)))));
+    for (const s of seen) expect(s).toContain('subquery_cache=off');
+    // The server's own default stays on: only these sessions change it.
+    const [[global]] = (await currentDb().execute(sql`select @@global.optimizer_switch as s`)) as unknown as [{ s: string }[]];
+    expect(global!.s).toContain('subquery_cache=on');
+  });
+});
