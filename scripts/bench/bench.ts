@@ -107,7 +107,32 @@ function readMarker(file: string): SeedRecord | undefined {
 const sameSize = (a: BenchSize, b: BenchSize) => a.rinks === b.rinks && a.sharpenings === b.sharpenings && a.ledgerEntries === b.ledgerEntries;
 const fmt = (n: number) => n.toLocaleString('en-US');
 
-/** The seeded data set: reused when the marker names this database and size and the rows are there, else seeded. */
+/** How far a reused data set may have grown through earlier runs' load runs, as a share of what was seeded. */
+const REUSE_GROWTH = 0.02;
+
+/**
+ * What keeps a seeded data set from being reused: a table with none of its seeded rows left, or one that earlier
+ * runs' load runs have grown past REUSE_GROWTH. A full run adds about half the seeded ledger entries (its
+ * redemptions) and as many stored answers, and the runs of one afternoon took the database from about 5 to 10 GB,
+ * past the buffer pool, so that logging a pair slowed to a third of its speed on the fresh data set.
+ */
+async function growthSinceSeeding(pool: Pool, seeded: Record<string, number>): Promise<string[]> {
+  const tables = { sharpening: seeded.sharpening ?? 0, ticket: seeded.ticket ?? 0, credit_entry: seeded.credit_entry ?? 0 };
+  const found: string[] = [];
+  for (const [table, count] of Object.entries(tables)) {
+    const [rows] = await pool.query<RowDataPacket[]>(`SELECT COUNT(*) AS n FROM ${table}`);
+    const now = Number(rows[0]?.n ?? 0);
+    if (now < count) found.push(`${table} has ${fmt(now)} rows of the ${fmt(count)} seeded`);
+    else if (now > count * (1 + REUSE_GROWTH)) found.push(`${table} has grown from ${fmt(count)} to ${fmt(now)} rows`);
+  }
+  // The seed stores no answers: every one is a load run's.
+  const [answers] = await pool.query<RowDataPacket[]>('SELECT COUNT(*) AS n FROM idempotency_key');
+  const stored = Number(answers[0]?.n ?? 0);
+  if (stored > (seeded.credit_entry ?? 0) * REUSE_GROWTH) found.push(`${fmt(stored)} stored answers`);
+  return found;
+}
+
+/** The seeded data set: reused when the marker names this database and size and it has not grown, else seeded. */
 async function ensureDataSet(config: BenchConfig): Promise<{ record: SeedRecord; reused: boolean; ledger: LedgerCheck }> {
   const db = databaseOf(config.databaseUrl);
   const markerFile = path.join(config.dataDir, 'bench', 'seed.json');
@@ -118,11 +143,12 @@ async function ensureDataSet(config: BenchConfig): Promise<{ record: SeedRecord;
   if (matches) {
     const handle = createDbHandle(config.databaseUrl, { connectionLimit: 2 });
     try {
-      const [rows] = await handle.pool.query<RowDataPacket[]>('SELECT COUNT(*) AS n FROM sharpening WHERE tenant_id = ?', [marker.result.large.id]);
-      if (Number(rows[0]?.n ?? 0) > 0) {
+      const grown = await growthSinceSeeding(handle.pool, marker.result.counts);
+      if (grown.length === 0) {
         say(`- reusing the data set seeded ${marker.seededAt} in ${db.where} (${fmt(marker.size.sharpenings)} sharpenings; BENCH_RESEED=1 seeds again)`);
         return { record: marker, reused: true, ledger: await checkLedger(handle.pool, { tenantIds: marker.result.rinkIds }) };
       }
+      say(`- not reusing the data set seeded ${marker.seededAt}: ${grown.join('; ')}`);
     } finally {
       await handle.close();
     }
