@@ -17,10 +17,10 @@ export interface DbHandle {
 }
 
 /**
- * Transactions on connections that run with autocommit off, the way JDBC's setAutoCommit(false) does: InnoDB
- * starts a transaction with the first statement, so none is spent on BEGIN (one of the seven a redemption made), and every
- * one ends in COMMIT or ROLLBACK before its connection goes back to the pool. Only this function takes
- * connections from that pool; a connection it cannot roll back is destroyed, never reused.
+ * Transactions on connections that run with autocommit off (`TRANSACTIONS`), the way JDBC's setAutoCommit(false)
+ * does: InnoDB starts a transaction with the first statement, so none is spent on BEGIN (one of the seven a
+ * redemption made), and every one ends in COMMIT or ROLLBACK before its connection goes back to the pool. Only this
+ * function takes connections from that pool; a connection it cannot roll back is destroyed, never reused.
  */
 function transactionsOn(pool: mysql.Pool): DbHandle['transaction'] {
   const bound = new WeakMap<object, Database>();
@@ -29,7 +29,6 @@ function transactionsOn(pool: mysql.Pool): DbHandle['transaction'] {
     try {
       let tx = bound.get(conn.connection);
       if (!tx) {
-        await conn.query('SET autocommit = 0');
         tx = drizzle(conn, { mode: 'default' });
         bound.set(conn.connection, tx);
       }
@@ -48,13 +47,23 @@ function transactionsOn(pool: mysql.Pool): DbHandle['transaction'] {
 }
 
 export function createDbHandle(url: string, options: { connectionLimit?: number } = {}): DbHandle {
-  const pool = createPool(url, options);
-  const transactions = createPool(url, options);
+  const pool = createPool(url, options, SESSION);
+  const transactions = createPool(url, options, TRANSACTIONS);
   const db = drizzle(pool, { mode: 'default' });
   return { db, pool, transaction: transactionsOn(transactions), close: async () => void (await Promise.all([pool.end(), transactions.end()])) };
 }
 
-function createPool(url: string, options: { connectionLimit?: number }): mysql.Pool {
+/**
+ * What every connection sets when it opens. MariaDB caches a correlated subquery's results in a temporary table it
+ * builds for each statement; ours are index lookups keyed by the outer row (a ticket's pair count, a lot's product
+ * name), so the cache rarely hits and building it is the cost: the open-ticket list spent about 40% of its server
+ * time on it.
+ */
+const SESSION = "optimizer_switch = 'subquery_cache=off'";
+/** The transaction pool's connections: the same, with autocommit off (`transactionsOn`). */
+const TRANSACTIONS = `${SESSION}, autocommit = 0`;
+
+function createPool(url: string, options: { connectionLimit?: number }, settings: string): mysql.Pool {
   const pool = mysql.createPool({
     uri: url,
     // Times are UTC in the database (stack notes: without this mysql2 converts to the process zone).
@@ -66,14 +75,12 @@ function createPool(url: string, options: { connectionLimit?: number }): mysql.P
     // API's CPU on a counter write. Drizzle's error still carries the query, and Node's async stack the caller.
     trace: false,
   });
-  // MariaDB caches a correlated subquery's results in a temporary table it builds for each statement. Ours are
-  // index lookups keyed by the outer row (a ticket's pair count, a lot's product name), so the cache rarely hits
-  // and building it is the cost: the open-ticket list spent about 40% of its server time on it. The SET is queued
-  // on a new connection before anything else can be sent on it.
+  // The SET is queued on a new connection before anything else can be sent on it; a connection that refuses it is
+  // destroyed, so what was queued behind it fails rather than runs without the settings.
   pool.on('connection', (connection) => {
     // mysql2 hands this event its callback connection, not the promise one its types name.
     const core = connection as unknown as CoreConnection;
-    core.query("SET SESSION optimizer_switch = 'subquery_cache=off'", (error) => {
+    core.query(`SET SESSION ${settings}`, (error) => {
       if (error) core.destroy();
     });
   });
