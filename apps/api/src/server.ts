@@ -1,11 +1,12 @@
 import { createApp } from './app';
+import { createServer } from './http/server';
 import { loadEnv } from './env';
 import { startWorker } from './jobs/worker';
 import { ensureWebhookEndpoints } from './lib/payment-settings';
 
 const env = loadEnv();
 const { app, logger, close, payments, mailer } = createApp(env);
-const server = app.listen(env.PORT, env.HOST, () => logger.info(`Rinkwright API on http://${env.HOST}:${env.PORT}`));
+const server = createServer(app).listen(env.PORT, env.HOST, () => logger.info(`Rinkwright API on http://${env.HOST}:${env.PORT}`));
 
 // Webhooks need the endpoints registered; a payment service that is down is retried, and the rest still works.
 const register = () =>
