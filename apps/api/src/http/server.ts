@@ -20,8 +20,10 @@ export function createServer(app: Express): http.Server {
     http.IncomingMessage.call(this, socket);
   }
   Request.prototype = app.request;
+  // Node passes the response its options (the socket's high-water mark) too; @types/node names only the request.
+  const ServerResponse = http.ServerResponse as unknown as (this: http.ServerResponse, req: http.IncomingMessage, options?: object) => void;
   function Response(this: http.ServerResponse, req: http.IncomingMessage, options?: object) {
-    (http.ServerResponse as unknown as (this: http.ServerResponse, req: http.IncomingMessage, options?: object) => void).call(this, req, options);
+    ServerResponse.call(this, req, options);
   }
   Response.prototype = app.response;
   return http.createServer({ IncomingMessage: Request as unknown as typeof http.IncomingMessage, ServerResponse: Response as unknown as typeof http.ServerResponse }, app);
