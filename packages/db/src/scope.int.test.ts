@@ -6,7 +6,7 @@ import { connectDb, currentDb, disconnectDb } from './client';
 import { dbEnv } from './env';
 import { addMember, createCustomer, createRink, createUser } from './factories';
 import { customer, member, rink, user } from './schema/index';
-import { preparedInsert, preparedJoined, preparedUpdate, qualified, scoped } from './scope';
+import { preparedInsert, preparedJoined, preparedUpdate, qualified, scoped, step } from './scope';
 
 // Two rinks that share one person (staff at both), each with customers: every scope operation of rink A
 // must act on A's rows alone, even when its condition names B's rows.
@@ -275,6 +275,77 @@ describe('scoped(tenantId)', () => {
     expect((await customersOf(w.b.id)).map((c) => c.name).sort()).toEqual(['Another at B', 'By its key']);
     // MariaDB refuses an index the table does not have (error 1176): the name reached it.
     await expect(scoped(w.b.id).runUpdate(rename('customer_no_such_idx'), { id: w.customerB.id, name: 'x' })).rejects.toThrow(/customer_no_such_idx/);
+  });
+
+  it('together sends its steps in one query, in order, the first ones ahead, each in its tenant', async () => {
+    const w = await twoRinks();
+    const insertNamed = preparedInsert(customer, ['id', 'name', 'memberCode']);
+    const named = preparedJoined(customer, ['name'], (value) => ({ fields: { id: customer.id, createdAt: customer.createdAt }, joins: [], where: eq(customer.name, value('name')) }));
+    const rename = preparedUpdate(customer, ['id', 'name'], (value) => ({ set: { name: sql`${value('name')}` }, where: eq(customer.id, value('id')) }));
+    const id = randomUUID();
+
+    const [before, renamedB, after] = await scoped(w.a.id).together(
+      [step.select(named, { name: 'Together' }), step.update(rename, { id: w.customerB.id, name: 'Together' }), step.update(rename, { id, name: 'Together again' })],
+      { first: [step.insert(insertNamed, { id, name: 'Together', memberCode: `T${id.slice(0, 8)}` })] },
+    );
+    // The select ran after the first step's insert; the rename of B's row found none of A's rows.
+    expect(before.map((r) => r.id)).toEqual([id]);
+    expect(before[0]?.createdAt).toBeInstanceOf(Date);
+    expect(renamedB).toBe(0);
+    expect(after).toBe(1);
+    expect((await customersOf(w.b.id)).map((c) => c.name).sort()).toEqual(['Another at B', 'Skater at B']);
+    expect((await customersOf(w.a.id)).find((c) => c.id === id)?.name).toBe('Together again');
+  });
+
+  it('together stops at a failing step, and in a transaction nothing of it commits', async () => {
+    const w = await twoRinks();
+    const insertNamed = preparedInsert(customer, ['id', 'name', 'memberCode']);
+    const [id, later] = [randomUUID(), randomUUID()];
+    const row = (key: string, name: string) => step.insert(insertNamed, { id: key, name, memberCode: `F${key.slice(0, 8)}` });
+
+    await expect(
+      scoped(w.a.id).transaction((tx) => tx.together([row(id, 'Written first'), row(id, 'Same key again'), row(later, 'Never reached')])),
+    ).rejects.toMatchObject({ code: 'ER_DUP_ENTRY' });
+    expect((await customersOf(w.a.id)).filter((c) => c.id === id || c.id === later)).toEqual([]);
+  });
+
+  it('a step sent at commit commits with the transaction, and its failure commits nothing', async () => {
+    const w = await twoRinks();
+    const insertNamed = preparedInsert(customer, ['id', 'name', 'memberCode']);
+    const rename = preparedUpdate(customer, ['id', 'name'], (value) => ({ set: { name: sql`${value('name')}` }, where: eq(customer.id, value('id')) }));
+    const [id, taken] = [randomUUID(), w.customerA.id];
+
+    await scoped(w.a.id).transaction(async (tx) => {
+      await tx.runUpdate(rename, { id: w.customerA.id, name: 'Renamed in the transaction' });
+      tx.atCommit(step.insert(insertNamed, { id, name: 'Sent at commit', memberCode: `C${id.slice(0, 8)}` }));
+    });
+    const names = (await customersOf(w.a.id)).map((c) => c.name);
+    expect(names).toContain('Sent at commit');
+    expect(names).toContain('Renamed in the transaction');
+
+    await expect(
+      scoped(w.a.id).transaction(async (tx) => {
+        await tx.runUpdate(rename, { id: w.customerA.id, name: 'Never committed' });
+        tx.atCommit(step.insert(insertNamed, { id: taken, name: 'Taken key', memberCode: 'TAKEN' }));
+      }),
+    ).rejects.toMatchObject({ code: 'ER_DUP_ENTRY' });
+    expect((await customersOf(w.a.id)).map((c) => c.name)).not.toContain('Never committed');
+    expect(() => scoped(w.a.id).atCommit(step.insert(insertNamed, { id, name: 'x', memberCode: 'x' }))).toThrow(/inside a transaction/);
+  });
+
+  it('a prepared insert writes several rows in one statement, each given its JS default, in the scope’s tenant', async () => {
+    const w = await twoRinks();
+    const insertNamed = preparedInsert(customer, ['id', 'name', 'memberCode']);
+    const ids: string[] = [randomUUID(), randomUUID(), randomUUID()];
+    const rows = ids.map((id, i) => ({ id, name: `Row ${i + 1}`, memberCode: `R${i}${id.slice(0, 6)}`, tenantId: w.b.id }) as { id: string; name: string; memberCode: string });
+
+    const [written] = await scoped(w.a.id).together([step.insertRows(insertNamed, rows)]);
+    expect(written).toBe(3);
+    const made = (await customersOf(w.a.id)).filter((c) => ids.includes(c.id));
+    expect(made.map((c) => c.name).sort()).toEqual(['Row 1', 'Row 2', 'Row 3']);
+    expect(made.every((c) => c.createdAt instanceof Date)).toBe(true);
+    expect((await customersOf(w.b.id)).some((c) => ids.includes(c.id))).toBe(false);
+    expect(() => step.insertRows(insertNamed, [])).toThrow(/needs a row/);
   });
 
   it('a scope bound to a transaction keeps its filter', async () => {

@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { Request } from 'express';
 import { eq } from 'drizzle-orm';
-import { idempotencyKey, isDuplicateKey, preparedInsert, scoped, type Scope } from '@rinkwright/db';
+import { idempotencyKey, isDuplicateKey, preparedInsert, scoped, step, type Scope } from '@rinkwright/db';
 import { AppError } from '../http/errors';
 
 // Every write from the counter carries a key the client made. The first request with a key claims it (an
@@ -71,7 +71,8 @@ export async function once(
     try {
       return await scope.transaction(async (tx) => {
         const answer = await work(tx);
-        await tx.insertOne(answerInsert, { ...claimed, ...stored(answer) });
+        // Sent with the COMMIT: a repeat's answer fails there on the unique key, and nothing of it commits.
+        tx.atCommit(step.insert(answerInsert, { ...claimed, ...stored(answer) }));
         return answer;
       });
     } catch (error) {

@@ -11,6 +11,7 @@ import {
   qualified,
   scoped,
   serviceItem,
+  step,
   sharpening,
   skateProfile,
   station,
@@ -19,7 +20,9 @@ import {
   ticketPair,
   user,
   wheel,
+  type RowOf,
   type Scope,
+  type Step,
 } from '@rinkwright/db';
 import type { TicketState } from '@rinkwright/core';
 import { compareText } from '../../lib/sorted';
@@ -27,7 +30,6 @@ import { compareText } from '../../lib/sorted';
 export type TicketRow = typeof ticket.$inferSelect;
 type NewPair = Omit<typeof ticketPair.$inferInsert, 'tenantId'>;
 type NewSharpening = Omit<typeof sharpening.$inferInsert, 'tenantId'>;
-type NewReading = Omit<typeof levelReading.$inferInsert, 'tenantId'>;
 
 export const findStation = (tenantId: string, stationId: string) => scoped(tenantId).findOne(station, eq(station.id, stationId));
 
@@ -46,11 +48,8 @@ const ticketLocked = preparedJoined(ticket, ['ticketId'], (value) => ({
   lock: true,
 }));
 
-/** Inside a transaction: the ticket with its row locked, so two tablets writing to one ticket take turns. */
-export async function lockTicket(s: Scope, ticketId: string): Promise<TicketRow | undefined> {
-  const [row] = await s.run(ticketLocked, { ticketId });
-  return row;
-}
+/** Inside a transaction: the ticket with its row locked (one row, or none), so two tablets writing to one ticket take turns. */
+export const lockTicket = (ticketId: string): Step<TicketRow[]> => step.select(ticketLocked, { ticketId });
 
 /** Opens a ticket with its pairs and its first event. The number is the rink's next; a race retries. */
 /** `within` runs in the same transaction (the pairs' credits are redeemed there, so a refusal keeps no ticket). */
@@ -216,15 +215,14 @@ const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
 
 /**
  * A ticket as it stands in `s`, with its pairs, sharpenings, readings and history; every ticket page and every
- * counter write answers with it. Pairs come by position; sharpenings in the order they were written, each one's
+ * counter write answers with it. `first`: a write's statements, sent ahead of these reads in their round trip. Pairs come by position; sharpenings in the order they were written, each one's
  * readings by blade (left first) and attempt; the history in time order.
  */
-export async function ticketRows(s: Scope, ticketId: string) {
-  const [pairs, sharpenings, events] = await Promise.all([
-    s.run(ticketWithPairs, { ticketId }),
-    s.run(sharpeningsWithReadings, { ticketId }),
-    s.run(eventsOfTicket, { ticketId }),
-  ]);
+export async function ticketRows(s: Scope, ticketId: string, first: Step<unknown>[] = []) {
+  const [pairs, sharpenings, events] = await s.together(
+    [step.select(ticketWithPairs, { ticketId }), step.select(sharpeningsWithReadings, { ticketId }), step.select(eventsOfTicket, { ticketId })],
+    { first },
+  );
   pairs.sort((a, b) => a.position - b.position);
   sharpenings.sort(
     (a, b) =>
@@ -278,12 +276,9 @@ const logTargets = preparedJoined(station, ['stationId', 'pairId', 'ticketId'], 
 /**
  * Where a pair is logged: the station with the wheel mounted on it (`wheelId` null when none) and, given a pair id,
  * that pair of this ticket with how many original (not correcting) sharpenings it has (`pairId` null when the ticket
- * has no such pair). Undefined when the rink has no such station.
+ * has no such pair). No row when the rink has no such station.
  */
-export async function logTarget(s: Scope, stationId: string, ticketId: string, pairId: string | null) {
-  const [row] = await s.run(logTargets, { stationId, pairId, ticketId });
-  return row;
-}
+export const logTarget = (stationId: string, ticketId: string, pairId: string | null) => step.select(logTargets, { stationId, pairId, ticketId });
 
 const toStation = preparedUpdate(ticket, ['ticketId', 'stationId', 'startedAt'], (value) => ({
   set: { state: 'on_station' as const, stationId: sql`${value('stationId')}`, startedAt: sql`${value('startedAt')}` },
@@ -293,10 +288,12 @@ const toStation = preparedUpdate(ticket, ['ticketId', 'stationId', 'startedAt'],
 const eventInsert = preparedInsert(ticketEvent, ['id', 'ticketId', 'fromState', 'toState', 'stationId', 'reason', 'at', 'byUserId']);
 
 /** Puts the ticket on a station, as the technician would by hand, with its event. */
-export async function putOnStation(s: Scope, from: TicketRow, to: { stationId: string; at: Date; byUserId: string }) {
+export function putOnStation(from: TicketRow, to: { stationId: string; at: Date; byUserId: string }): Step<number>[] {
   const { stationId, at, byUserId } = to;
-  await s.runUpdate(toStation, { ticketId: from.id, stationId, startedAt: from.startedAt ?? at });
-  await s.insertOne(eventInsert, { id: randomUUID(), ticketId: from.id, fromState: from.state, toState: 'on_station', stationId, reason: null, at, byUserId });
+  return [
+    step.update(toStation, { ticketId: from.id, stationId, startedAt: from.startedAt ?? at }),
+    step.insert(eventInsert, { id: randomUUID(), ticketId: from.id, fromState: from.state, toState: 'on_station', stationId, reason: null, at, byUserId }),
+  ];
 }
 
 /** A pair added to the ticket after the last one. Under the ticket's lock, so two new pairs never share a position. */
@@ -320,9 +317,12 @@ const sharpeningInsert = preparedInsert(sharpening, [
   'correctionReason',
 ]);
 
-export async function insertSharpening(s: Scope, row: Required<Omit<NewSharpening, 'createdAt'>>, readings: NewReading[]) {
-  await s.insertOne(sharpeningInsert, row);
-  if (readings.length) await s.insert(levelReading, readings);
+const readingInsert = preparedInsert(levelReading, ['id', 'stationId', 'sharpeningId', 'kind', 'blade', 'attempt', 'readingNm', 'tiltMillideg', 'takenAt', 'takenBy']);
+export type NewReading = RowOf<typeof readingInsert>;
+
+/** A sharpening with its readings (none for a pair logged without a gauge). */
+export function insertSharpening(row: Required<Omit<NewSharpening, 'createdAt'>>, readings: NewReading[]): Step<number>[] {
+  return [step.insert(sharpeningInsert, row), ...(readings.length ? [step.insertRows(readingInsert, readings)] : [])];
 }
 
 export const pairIdsOf = async (tenantId: string, ticketId: string) => (await scoped(tenantId).find(ticketPair, { where: eq(ticketPair.ticketId, ticketId) })).map((p) => p.id);
@@ -331,7 +331,9 @@ export const findSharpening = (tenantId: string, sharpeningId: string) => scoped
 
 export const readingsOf = (tenantId: string, sharpeningId: string) => scoped(tenantId).find(levelReading, { where: eq(levelReading.sharpeningId, sharpeningId) });
 
-export const insertReadings = (tenantId: string, rows: NewReading[]) => scoped(tenantId).insert(levelReading, rows);
+export const insertReadings = async (tenantId: string, rows: NewReading[]) => {
+  if (rows.length) await scoped(tenantId).together([step.insertRows(readingInsert, rows)]);
+};
 
 export const insertCorrection = (tenantId: string, row: NewSharpening) => scoped(tenantId).insert(sharpening, row);
 

@@ -18,7 +18,7 @@ import type { RinkContext } from '../../http/route';
 import { readDeskSettings } from '../../lib/desk-settings';
 import { noticeMail, type Mailer } from '../../lib/mailer';
 import { groupBy } from '../../lib/sorted';
-import { scoped, type Scope } from '@rinkwright/db';
+import { scoped, type Scope, type Step } from '@rinkwright/db';
 import * as ledger from '../../lib/ledger/ledger';
 import * as repo from './repository';
 
@@ -184,8 +184,9 @@ function toSummary(r: Awaited<ReturnType<typeof repo.listTickets>>[number]): Tic
 }
 
 /** The ticket as it stands in `s` (inside a transaction: with that transaction's own writes). */
-export async function describeTicket(s: Scope, ticketId: string): Promise<TicketDetail> {
-  const rows = await repo.ticketRows(s, ticketId);
+/** `first`: a write's statements, sent in the same round trip ahead of the reads (`repo.ticketRows`). */
+export async function describeTicket(s: Scope, ticketId: string, first?: Step<unknown>[]): Promise<TicketDetail> {
+  const rows = await repo.ticketRows(s, ticketId, first);
   const head = rows.pairs[0];
   if (!head) throw AppError.notFound(TICKET_NOT_FOUND);
   // A row per reading (one, with null reading fields, for a sharpening without any), in order.
@@ -367,14 +368,18 @@ function assertOneReadingPerBlade(readings: ReadingInput[]) {
  * lock comes first, so two tablets logging on one ticket take turns: the second sees the first's pair and sharpening
  * before it decides a new pair's position or whether the named pair is done. Logging at a station puts the ticket on
  * that station, as the technician would by hand; a refused log rolls back whole and moves nothing.
+ *
+ * Three round trips to MariaDB: the lock with what the log is checked against; the writes with the reads of the
+ * answer; the stored answer with the COMMIT (a new pair adds its own, and its credit's).
  */
 export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string, input: LogSharpeningInput): Promise<TicketDetail> {
-  const open = await repo.lockTicket(s, ticketId);
+  // The lock is taken first in the round trip, so the target's pair count is read under it.
+  const [[open], [found]] = await s.together([repo.lockTicket(ticketId), repo.logTarget(input.stationId, ticketId, input.newPair ? null : (input.pairId ?? null))]);
   if (!open) throw AppError.notFound(TICKET_NOT_FOUND);
   if (open.state !== 'waiting' && open.state !== 'on_station') {
     throw new AppError('conflict', `The ticket is ${open.state.replace('_', ' ')}: reopen it on a station to log more`);
   }
-  const target = activeStation(await repo.logTarget(s, input.stationId, ticketId, input.newPair ? null : (input.pairId ?? null)));
+  const target = activeStation(found);
   assertOneReadingPerBlade(input.readings);
   const now = new Date();
   let pairId: string;
@@ -401,15 +406,14 @@ export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string
     if (target.pairLogged > 0) throw new AppError('conflict', ALREADY_LOGGED);
     pairId = target.pairId;
   }
-  if (open.state === 'waiting' || open.stationId !== target.id) await repo.putOnStation(s, open, { stationId: target.id, at: now, byUserId: ctx.userId });
   if (newPair) {
     await repo.insertPair(s, newPair);
     // A batch pair paid by credit draws its credit here, keyed by the pair.
     if (open.creditAccountId && newPairIsStandard) await redeemForPair(s, ctx, open.creditAccountId, pairId);
   }
+  const moves = open.state === 'waiting' || open.stationId !== target.id ? repo.putOnStation(open, { stationId: target.id, at: now, byUserId: ctx.userId }) : [];
   const sharpeningId = randomUUID();
-  await repo.insertSharpening(
-    s,
+  const logged = repo.insertSharpening(
     {
       id: sharpeningId,
       ticketId,
@@ -426,7 +430,7 @@ export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string
     },
     readingRows(ctx, target.id, sharpeningId, input.bladeWidthNm, input.readings, () => 1, now),
   );
-  return describeTicket(s, ticketId);
+  return describeTicket(s, ticketId, [...moves, ...logged]);
 }
 
 async function requireSharpening(ctx: RinkContext, sharpeningId: string) {
