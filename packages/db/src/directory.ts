@@ -1,5 +1,6 @@
 import { and, asc, eq, isNull, sql } from 'drizzle-orm';
 import { currentDb, isDuplicateKey, type Database } from './client';
+import { runPrepared } from './scope';
 import { customer, invitation, jobRun, member, rink, rinkBilling, user } from './schema/index';
 
 // The few reads that are not inside one rink by nature: they start from the signed-in user (which rinks am
@@ -12,7 +13,7 @@ import { customer, invitation, jobRun, member, rink, rinkBilling, user } from '.
  */
 export async function findRinkBySlug(slug: string, userId?: string) {
   // Without a user, an id no member has: the membership join matches nothing and the statement stays the same.
-  const rows = await rinkBySlugQuery(currentDb()).execute({ slug, userId: userId ?? '' });
+  const rows = await runPrepared(rinkBySlugQuery(currentDb()), { slug, userId: userId ?? '' });
   const row = rows[0];
   return (
     row && {

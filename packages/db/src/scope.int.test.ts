@@ -1,12 +1,12 @@
 import { randomUUID } from 'node:crypto';
-import { asc, eq, sql } from 'drizzle-orm';
+import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { connectDb, currentDb, disconnectDb } from './client';
 import { dbEnv } from './env';
 import { addMember, createCustomer, createRink, createUser } from './factories';
 import { customer, member, rink, user } from './schema/index';
-import { preparedInsert, preparedJoined, preparedUpdate, qualified, scoped, step } from './scope';
+import { preparedInsert, preparedJoined, preparedUpdate, qualified, runPrepared, scoped, step } from './scope';
 
 // Two rinks that share one person (staff at both), each with customers: every scope operation of rink A
 // must act on A's rows alone, even when its condition names B's rows.
@@ -346,6 +346,23 @@ describe('scoped(tenantId)', () => {
     expect(made.every((c) => c.createdAt instanceof Date)).toBe(true);
     expect((await customersOf(w.b.id)).some((c) => ids.includes(c.id))).toBe(false);
     expect(() => step.insertRows(insertNamed, [])).toThrow(/needs a row/);
+  });
+
+  it('runPrepared reads a select Drizzle prepared as Drizzle would: nested fields, dates, a left join with no match', async () => {
+    const w = await twoRinks();
+    const bySlug = currentDb()
+      .select({ rink, memberId: member.id })
+      .from(rink)
+      .leftJoin(member, and(eq(member.organizationId, rink.id), eq(member.userId, sql.placeholder('userId'))))
+      .where(eq(rink.slug, sql.placeholder('slug')))
+      .prepare();
+
+    const [found] = await runPrepared(bySlug, { slug: w.a.slug, userId: w.shared.id });
+    expect(found).toEqual(await bySlug.execute({ slug: w.a.slug, userId: w.shared.id }).then((rows) => rows[0]));
+    expect(found?.rink.id).toBe(w.a.id);
+    expect(found?.rink.createdAt).toBeInstanceOf(Date);
+    expect(found?.memberId).toBe(w.memberA.id);
+    expect((await runPrepared(bySlug, { slug: w.a.slug, userId: 'nobody' }))[0]?.memberId).toBeNull();
   });
 
   it('a scope bound to a transaction keeps its filter', async () => {

@@ -64,8 +64,11 @@ type OrderedField = { path: string[]; field: unknown };
  * Drizzle's mapping of one row array to the select's row object (decoding each column as its own queries do). It
  * exports it without a type; `scope.int.test.ts` reads through it, and this check names an upgrade that drops it.
  */
-const mapResultRow = (drizzleOrm as unknown as { mapResultRow?: (fields: OrderedField[], row: unknown[], joinsNotNullableMap: Record<string, boolean> | undefined) => unknown }).mapResultRow;
-if (typeof mapResultRow !== 'function') throw new Error('drizzle-orm no longer exports mapResultRow: step.select needs updating');
+const mapResultRow = (() => {
+  const exported = (drizzleOrm as unknown as { mapResultRow?: (fields: OrderedField[], row: unknown[], joinsNotNullableMap: Record<string, boolean> | undefined) => unknown }).mapResultRow;
+  if (typeof exported !== 'function') throw new Error('drizzle-orm no longer exports mapResultRow: step.select needs updating');
+  return exported;
+})();
 
 /**
  * What this module reads off Drizzle's prepared statement (its mysql2 one, which does not type them): the text with a
@@ -343,22 +346,32 @@ async function send(executor: Executor, texts: string[], values: unknown[]): Pro
 
 const affected = (result: unknown) => (result as { affectedRows: number }).affectedRows;
 
+/** A prepared select's text and values, and its row arrays read as Drizzle would. */
+function selectOf<R>(statement: PreparedStatement, values: Record<string, unknown>) {
+  const { fields, joinsNotNullableMap } = statement;
+  if (!fields) throw new Error('drizzle-orm keeps no fields on this select: step.select needs updating');
+  return {
+    text: statement.query.sql,
+    values: fillPlaceholders(statement.params, values),
+    read: (rows: unknown) => (rows as unknown[][]).map((row) => mapResultRow(fields, row, joinsNotNullableMap)) as R[],
+  };
+}
+
+/**
+ * Runs a select Drizzle prepared (`.prepare()`) on the main pool the way a scope runs its own (`send`), for the few
+ * reads that come before any rink is known (`directory`). `scope.int.test.ts` runs one.
+ */
+export async function runPrepared<R>(prepared: { execute(values?: Record<string, unknown>): Promise<R[]> }, values: Record<string, Value>): Promise<R[]> {
+  const { text, values: bound, read } = selectOf<R>(prepared as unknown as PreparedStatement, values);
+  const [rows] = await send(currentDb(), [text], bound);
+  return read(rows);
+}
+
 /** The steps a scope sends (`Scope.together`), each from a statement built once. */
 export const step = {
   /** The rows of a `preparedJoined` select. */
   select<F extends Fields, N extends string>(select: PreparedJoined<F, N>, values: Record<N, Value>): Step<Picked<F>[]> {
-    return {
-      build(tenantId) {
-        const statement = select.query();
-        const { fields, joinsNotNullableMap } = statement;
-        if (!fields) throw new Error('drizzle-orm keeps no fields on this select: step.select needs updating');
-        return {
-          text: statement.query.sql,
-          values: fillPlaceholders(statement.params, { ...values, [TENANT]: tenantId }),
-          read: (rows) => (rows as unknown[][]).map((row) => mapResultRow(fields, row, joinsNotNullableMap)) as Picked<F>[],
-        };
-      },
-    };
+    return { build: (tenantId) => selectOf<Picked<F>>(select.query(), { ...values, [TENANT]: tenantId }) };
   },
 
   /** One row by a `preparedInsert`; the tenant is the scope's. Its result is the number of rows written. */
