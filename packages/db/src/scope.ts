@@ -457,6 +457,7 @@ export function scoped(tenantId: string, executor?: Executor, tail?: CommitTail)
     async together(steps, options) {
       const first = options?.first ?? [];
       const built = [...first, ...steps].map((s) => s.build(tenantId));
+      if (built.length === 0) return [] as never;
       const results = await send(
         exec(),
         built.map((b) => b.text),

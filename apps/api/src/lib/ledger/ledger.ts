@@ -200,6 +200,7 @@ async function operate(
     const steps = await plan({ lots, now, tx });
     const operationId = randomUUID();
     const entries: repo.EntryRecord[] = [];
+    const moves = steps.map((step) => repo.moveRemaining(step.lot.id, step.credits));
     for (const [i, step] of steps.entries()) {
       const used = step.lot.credits - step.lot.remaining;
       // Values follow the lot's cumulative rounding by position, so a lot's entries always add up to the value
@@ -208,7 +209,6 @@ async function operate(
         step.credits < 0
           ? -lotValueMinor(asLot(step.lot), -step.credits)
           : Math.round((step.lot.priceMinor * used) / step.lot.credits) - Math.round((step.lot.priceMinor * (used - step.credits)) / step.lot.credits);
-      if (!(await repo.moveRemaining(tx, step.lot.id, step.credits))) throw new AppError('insufficient_credits', 'Not enough credits on that lot');
       step.lot.remaining += step.credits;
       entries.push({
         id: i === 0 ? operationId : randomUUID(),
@@ -228,7 +228,10 @@ async function operate(
         createdAt: new Date(now.getTime() + i),
       });
     }
-    await repo.insertEntries(tx, entries);
+    // The lots' moves and the entries in one round trip; a move that would take a lot below zero changes no row,
+    // and the whole transaction is refused with it.
+    const moved = await tx.together([...moves, ...repo.insertEntries(entries)]);
+    if (moved.slice(0, moves.length).some((rows) => rows !== 1)) throw new AppError('insufficient_credits', 'Not enough credits on that lot');
     return { entries, balance: balanceAfter(lots, remainingBefore, steps, accountId, now), replayed: false };
   });
 }

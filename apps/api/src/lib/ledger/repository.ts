@@ -1,5 +1,5 @@
 import { and, asc, desc, eq, gt, inArray, isNotNull, isNull, lte, or, sql } from 'drizzle-orm';
-import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, preparedInsert, preparedJoined, preparedUpdate, product, qualified, user, type Scope } from '@rinkwright/db';
+import { creditAccount, creditEntry, creditLot, isDuplicateKey, membership, preparedInsert, preparedJoined, preparedUpdate, product, qualified, step, user, type Scope, type Step } from '@rinkwright/db';
 import { compareText } from '../sorted';
 
 // The ledger's queries. Every function takes the caller's scope, usually a transaction's, so that a whole
@@ -150,13 +150,16 @@ const remainingMove = preparedUpdate(creditLot, ['lotId', 'delta'], (value) => (
   index: 'PRIMARY',
 }));
 
-/** One entry with the prepared insert (a redemption); more in one multi-row statement. */
-export const insertEntries = (s: Scope, rows: EntryRecord[]) => (rows.length === 1 ? s.insertOne(entryInsert, rows[0]!) : s.insert(creditEntry, rows));
-
-/** Moves a lot's running total by delta; refuses (0 rows) to take it below zero. */
-export async function moveRemaining(s: Scope, lotId: string, delta: number): Promise<boolean> {
-  return (await s.runUpdate(remainingMove, { lotId, delta })) === 1;
+/** Entries in prepared multi-row inserts of up to ENTRIES_PER_INSERT rows (one statement is kept for each count). */
+const ENTRIES_PER_INSERT = 8;
+export function insertEntries(rows: EntryRecord[]): Step<number>[] {
+  const inserts: Step<number>[] = [];
+  for (let i = 0; i < rows.length; i += ENTRIES_PER_INSERT) inserts.push(step.insertRows(entryInsert, rows.slice(i, i + ENTRIES_PER_INSERT)));
+  return inserts;
 }
+
+/** Moves a lot's running total by delta; refuses (changes no row, its result 0) to take it below zero. */
+export const moveRemaining = (lotId: string, delta: number): Step<number> => step.update(remainingMove, { lotId, delta });
 
 export const findEntryByKey = (s: Scope, key: string) => s.findOne(creditEntry, eq(creditEntry.idemKey, key));
 export const entriesOfOperation = (s: Scope, operationId: string) => s.find(creditEntry, { where: eq(creditEntry.operationId, operationId), orderBy: asc(creditEntry.createdAt) });
