@@ -215,8 +215,9 @@ const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
 
 /**
  * A ticket as it stands in `s`, with its pairs, sharpenings, readings and history; every ticket page and every
- * counter write answers with it. `first`: a write's statements, sent ahead of these reads in their round trip. Pairs come by position; sharpenings in the order they were written, each one's
- * readings by blade (left first) and attempt; the history in time order.
+ * counter write answers with it. Pairs come by position; sharpenings in the order they were written, each one's
+ * readings by blade (left first) and attempt; the history in time order. `first`: a write's statements, sent ahead
+ * of these reads in their round trip.
  */
 export async function ticketRows(s: Scope, ticketId: string, first: Step<unknown>[] = []) {
   const [pairs, sharpenings, events] = await s.together(

@@ -183,8 +183,10 @@ function toSummary(r: Awaited<ReturnType<typeof repo.listTickets>>[number]): Tic
   };
 }
 
-/** The ticket as it stands in `s` (inside a transaction: with that transaction's own writes). */
-/** `first`: a write's statements, sent in the same round trip ahead of the reads (`repo.ticketRows`). */
+/**
+ * The ticket as it stands in `s` (inside a transaction: with that transaction's own writes). `first`: a write's
+ * statements, sent in the same round trip ahead of the reads (`repo.ticketRows`).
+ */
 export async function describeTicket(s: Scope, ticketId: string, first?: Step<unknown>[]): Promise<TicketDetail> {
   const rows = await repo.ticketRows(s, ticketId, first);
   const head = rows.pairs[0];
