@@ -307,6 +307,10 @@ describe('scoped(tenantId)', () => {
       scoped(w.a.id).transaction((tx) => tx.together([row(id, 'Written first'), row(id, 'Same key again'), row(later, 'Never reached')])),
     ).rejects.toMatchObject({ code: 'ER_DUP_ENTRY' });
     expect((await customersOf(w.a.id)).filter((c) => c.id === id || c.id === later)).toEqual([]);
+
+    // Outside a transaction each statement commits on its own: the first stays, and none after the failure ran.
+    await expect(scoped(w.a.id).together([row(id, 'Written first'), row(id, 'Same key again'), row(later, 'Never reached')])).rejects.toMatchObject({ code: 'ER_DUP_ENTRY' });
+    expect((await customersOf(w.a.id)).filter((c) => c.id === id || c.id === later).map((c) => c.name)).toEqual(['Written first']);
   });
 
   it('a step sent at commit commits with the transaction, and its failure commits nothing', async () => {

@@ -114,7 +114,7 @@ export interface PreparedInsert<T extends MySqlTable, K extends string> {
 }
 
 /** A row for a `preparedInsert` of these columns. */
-export type InsertRow<T extends MySqlTable, K extends string> = { [P in K]: P extends keyof NewRow<T> ? NewRow<T>[P] : never };
+type InsertRow<T extends MySqlTable, K extends string> = { [P in K]: P extends keyof NewRow<T> ? NewRow<T>[P] : never };
 /** A row for this `preparedInsert`. */
 export type RowOf<P> = P extends PreparedInsert<infer T, infer K> ? InsertRow<T, K> : never;
 
@@ -218,18 +218,23 @@ const TENANT = 'scopeTenantId';
 
 /**
  * The mysql2 client (pool, or a transaction's connection) behind a Drizzle database or transaction. Drizzle keeps it
- * on the session it does not type; `scope.int.test.ts` runs a prepared select inside a transaction, so an upgrade
- * that moves it fails there.
+ * on the session it does not type; `scope.int.test.ts` runs steps inside a transaction and out, so an upgrade that
+ * moves it fails there.
  */
 function clientOf(executor: Executor): unknown {
   const client = (executor as unknown as { session?: { client?: unknown } }).session?.client;
-  if (!client) throw new Error('drizzle-orm keeps no session.client on this database: preparedJoined needs updating');
+  if (!client) throw new Error('drizzle-orm keeps no session.client on this database: send needs updating');
   return client;
+}
+
+/** Refuses a value named like the tenant's placeholder, which the scope fills. */
+function refuseTenantName(names: readonly string[]): void {
+  if (names.includes(TENANT)) throw new Error(`${TENANT} is the tenant's placeholder`);
 }
 
 /** Builds a statement on its first use (the pool exists by then) and keeps it; refuses a value named like the tenant's. */
 function builtOnce<R>(names: readonly string[], build: () => R): () => R {
-  if (names.includes(TENANT)) throw new Error(`${TENANT} is the tenant's placeholder`);
+  refuseTenantName(names);
   let built: R | undefined;
   return () => (built ??= build());
 }
@@ -261,7 +266,7 @@ export function preparedJoined<F extends Fields, const N extends string>(
  * it made again for each row, not once when the statement is built.
  */
 export function preparedInsert<T extends MySqlTable, const K extends keyof NewTenantRow<T> & string>(table: T, columns: readonly K[]): PreparedInsert<T, K> {
-  if ((columns as readonly string[]).includes(TENANT)) throw new Error(`${TENANT} is the tenant's placeholder`);
+  refuseTenantName(columns);
   const built = new Map<number, { statement: PreparedStatement; defaults: [string, () => unknown][] }>();
   const build = (rows: number) => {
     const tenantKey = tenantPropertyOf(table);
@@ -318,9 +323,8 @@ export function preparedUpdate<T extends MySqlTable, const N extends string>(
  * takes `UPDATE t USE INDEX (i) SET …`). The text is checked first; `scope.int.test.ts` runs a hinted update.
  */
 function withIndexHint(statement: PreparedStatement, tableName: string, index: string): void {
-  const texts = statement as unknown as { rawQuery?: { sql: string }; query?: { sql: string } };
   const head = `update \`${tableName}\` set `;
-  for (const text of [texts.rawQuery, texts.query]) {
+  for (const text of [statement.rawQuery, statement.query]) {
     if (!text?.sql.startsWith(head)) throw new Error('drizzle-orm writes its updates differently: preparedUpdate needs updating');
     text.sql = `update \`${tableName}\` use index (\`${index.replaceAll('`', '')}\`) set ${text.sql.slice(head.length)}`;
   }
