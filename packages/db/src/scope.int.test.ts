@@ -1,8 +1,11 @@
 import { randomUUID } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/mysql-core';
+import mysql from 'mysql2/promise';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { connectDb, currentDb, disconnectDb } from './client';
+import { connectDb, currentDb, disconnectDb, transaction, type Database } from './client';
 import { dbEnv } from './env';
 import { addMember, createCustomer, createRink, createUser } from './factories';
 import { customer, member, rink, user } from './schema/index';
@@ -27,6 +30,12 @@ async function twoRinks() {
   const customerB = await createCustomer(db, b.id, { name: 'Skater at B', userId: shared.id });
   const secondB = await createCustomer(db, b.id, { name: 'Another at B' });
   return { a, b, shared, memberA, memberB, customerA, customerB, secondB };
+}
+
+/** How many PREPAREs and EXECUTEs the transaction's connection has run. */
+async function sqlCounters(tx: Database) {
+  const [rows] = (await tx.execute(sql`show session status where variable_name in ('Com_prepare_sql', 'Com_execute_sql')`)) as unknown as [{ Variable_name: string; Value: string }[]];
+  return Object.fromEntries(rows.map((r) => [r.Variable_name, Number(r.Value)]));
 }
 
 const customersOf = (tenantId: string) =>
@@ -237,6 +246,59 @@ describe('scoped(tenantId)', () => {
     });
     expect(renamed.inside).toEqual([{ customerId: w.customerB.id, role: 'manager' }]);
     expect(renamed.outside).toEqual([]);
+  });
+
+  it('MariaDB parses a statement once per connection: the first run prepares it, later runs execute it with their values', async () => {
+    const w = await twoRinks();
+    const named = preparedJoined(customer, ['name'], (value) => ({ fields: { id: customer.id, name: customer.name }, joins: [], where: eq(customer.name, value('name')) }));
+    const insertNamed = preparedInsert(customer, ['id', 'name', 'memberCode']);
+    // Quotes, a backslash and a question mark: values go as literals after EXECUTE … USING, never into the text.
+    const odd = `O'Neil \\ "Sharp" ? ${randomUUID().slice(0, 8)}`;
+    const id = randomUUID();
+    const seen = await transaction(async (tx) => {
+      const s = scoped(w.a.id, tx);
+      const before = await sqlCounters(tx);
+      await s.insertOne(insertNamed, { id, name: odd, memberCode: `Q${id.slice(0, 8)}` });
+      const found = await s.run(named, { name: odd });
+      const again = await s.run(named, { name: 'Skater at A' });
+      const none = await s.run(named, { name: 'Skater at B' });
+      return { before, after: await sqlCounters(tx), found, again, none };
+    });
+    expect(seen.found).toEqual([{ id, name: odd }]);
+    expect(seen.again).toEqual([{ id: w.customerA.id, name: 'Skater at A' }]);
+    expect(seen.none).toEqual([]);
+    // Two statements new to this connection, prepared once each; four runs.
+    expect(seen.after.Com_prepare_sql! - seen.before.Com_prepare_sql!).toBe(2);
+    expect(seen.after.Com_execute_sql! - seen.before.Com_execute_sql!).toBe(4);
+  });
+
+  // The limit is the server's, so this needs root: over the checkout's own socket (scripts/lib/data.mjs), as in CI.
+  const rootSocket = fileURLToPath(new URL('../../../.data/mariadb.sock', import.meta.url));
+  it.skipIf(!existsSync(rootSocket))('when MariaDB refuses to prepare one more statement, the round trip goes as text and that connection prepares no more', async () => {
+    const w = await twoRinks();
+    const byName = (label: string) => preparedJoined(customer, ['name'], (value) => ({ fields: { id: customer.id, label: sql<string>`${label}` }, joins: [], where: eq(customer.name, value('name')) }));
+    const refused = byName('refused');
+    const later = byName('later');
+    const root = await mysql.createConnection({ socketPath: rootSocket, user: 'root' });
+    const [[{ limit }]] = (await root.query('SELECT @@global.max_prepared_stmt_count AS `limit`')) as unknown as [[{ limit: number }]];
+    try {
+      const seen = await transaction(async (tx) => {
+        const s = scoped(w.a.id, tx);
+        // None allowed: the server answers a PREPARE as it does when it holds as many as it allows.
+        await root.query('SET GLOBAL max_prepared_stmt_count = 0');
+        const first = await s.run(refused, { name: 'Skater at A' });
+        await root.query('SET GLOBAL max_prepared_stmt_count = ?', [limit]);
+        const before = await sqlCounters(tx);
+        const second = await s.run(later, { name: 'Skater at A' });
+        return { first, second, before, after: await sqlCounters(tx) };
+      });
+      expect(seen.first).toEqual([{ id: w.customerA.id, label: 'refused' }]);
+      expect(seen.second).toEqual([{ id: w.customerA.id, label: 'later' }]);
+      expect(seen.after).toEqual(seen.before);
+    } finally {
+      await root.query('SET GLOBAL max_prepared_stmt_count = ?', [limit]);
+      await root.end();
+    }
   });
 
   it('a prepared insert sets the scope’s tenant and makes a JS default at each insert', async () => {

@@ -1,7 +1,7 @@
 import * as drizzleOrm from 'drizzle-orm';
 import { and, count as countFn, eq, fillPlaceholders, getTableColumns, sql, type Placeholder, type SQL } from 'drizzle-orm';
 import { getTableConfig, type AnyMySqlColumn, type MySqlTable } from 'drizzle-orm/mysql-core';
-import { currentDb, reportsDb, transaction, type CommitTail, type Executor } from './client';
+import { currentDb, reportsDb, sendStatements, transaction, type CommitTail, type Executor, type Statement } from './client';
 import { rink } from './schema/index';
 import { isTenantTable } from './tenancy';
 
@@ -330,22 +330,9 @@ function withIndexHint(statement: PreparedStatement, tableName: string, index: s
   }
 }
 
-/** The promise API of a mysql2 pool or connection, as `send` uses it. */
-interface Client {
-  query(options: { sql: string; rowsAsArray: true; dateStrings: true }, values: unknown[]): Promise<[unknown, unknown]>;
-}
-
-/**
- * The statements as one query on the executor's client: each one's result, in order. Rows come as arrays with dates
- * as text, as Drizzle's own statements read them (its date columns parse the text); Drizzle gets the dates as text
- * through a type cast called for every field, which made mysql2 build an object with three functions for each field
- * of each result: a tenth of what a logged pair allocated.
- */
-async function send(executor: Executor, texts: string[], values: unknown[]): Promise<unknown[]> {
-  const client = clientOf(executor) as Client;
-  const [result] = await client.query({ sql: texts.join(';\n'), rowsAsArray: true, dateStrings: true }, values);
-  // mysql2 nests the results only when there is more than one.
-  return texts.length === 1 ? [result] : (result as unknown[]);
+/** The statements on the executor's client (the pool, or the transaction's connection): each one's result, in order. */
+function send(executor: Executor, statements: Statement[]): Promise<unknown[]> {
+  return sendStatements(clientOf(executor) as Parameters<typeof sendStatements>[0], statements);
 }
 
 const affected = (result: unknown) => (result as { affectedRows: number }).affectedRows;
@@ -367,7 +354,7 @@ function selectOf<R>(statement: PreparedStatement, values: Record<string, unknow
  */
 export async function runPrepared<R>(prepared: { execute(values?: Record<string, unknown>): Promise<R[]> }, values: Record<string, Value>): Promise<R[]> {
   const { text, values: bound, read } = selectOf<R>(prepared as unknown as PreparedStatement, values);
-  const [rows] = await send(currentDb(), [text], bound);
+  const [rows] = await send(currentDb(), [{ text, values: bound }]);
   return read(rows);
 }
 
@@ -462,19 +449,14 @@ export function scoped(tenantId: string, executor?: Executor, tail?: CommitTail)
       const first = options?.first ?? [];
       const built = [...first, ...steps].map((s) => s.build(tenantId));
       if (built.length === 0) return [] as never;
-      const results = await send(
-        exec(),
-        built.map((b) => b.text),
-        built.flatMap((b) => b.values),
-      );
+      const results = await send(exec(), built);
       return built.slice(first.length).map((b, i) => b.read(results[first.length + i])) as never;
     },
 
     atCommit(s) {
       if (!tail) throw new Error('atCommit is for a scope inside a transaction');
       const { text, values } = s.build(tenantId);
-      tail.texts.push(text);
-      tail.values.push(...values);
+      tail.statements.push({ text, values });
     },
 
     async run(select, values) {
