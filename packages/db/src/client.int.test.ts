@@ -109,13 +109,4 @@ describe('the pools', () => {
     const [[global]] = (await currentDb().execute(sql`select @@global.optimizer_switch as s`)) as unknown as [{ s: string }[]];
     expect(global!.s).toContain('subquery_cache=on');
   });
-
-  it('estimate lookups by equal values from index statistics in transactions only', async () => {
-    const limit = async (db: Database) => Number(((await db.execute(sql`select @@session.eq_range_index_dive_limit as n`)) as unknown as [{ n: number }[]])[0][0]!.n);
-    const inTransactions = await Promise.all(Array.from({ length: LIMIT * 2 }, () => transaction(limit)));
-    const outside = await Promise.all(Array.from({ length: LIMIT * 2 }, () => limit(currentDb())));
-    expect(inTransactions).toEqual(Array(LIMIT * 2).fill(1));
-    // MariaDB's default (200) everywhere else.
-    expect(outside).toEqual(Array(LIMIT * 2).fill(200));
-  });
 });

@@ -75,15 +75,8 @@ export function createDbHandle(url: string, options: { connectionLimit?: number 
  * time on it.
  */
 const SESSION = "optimizer_switch = 'subquery_cache=off'";
-/**
- * The transaction pool's connections: the same, with autocommit off (`transactionsOn`), and MariaDB's estimate of a
- * lookup by equal values read from the index's statistics instead of a dive into the index for each one
- * (`eq_range_index_dive_limit`, 200 by default). A transaction's reads find their rows by named indexes with equal
- * values (a ticket's pairs, an account's lots), so the estimate picks nothing, and the dives were about 7% of what
- * MariaDB spent on a logged pair. Ranges (a report refresh's days) are still dived into; reads outside
- * transactions, whose index the optimizer may choose, keep the default.
- */
-const TRANSACTIONS = `${SESSION}, autocommit = 0, eq_range_index_dive_limit = 1`;
+/** The transaction pool's connections: the same, with autocommit off (`transactionsOn`). */
+const TRANSACTIONS = `${SESSION}, autocommit = 0`;
 
 function createPool(url: string, options: { connectionLimit?: number }, settings: string): mysql.Pool {
   const pool = mysql.createPool({
