@@ -224,13 +224,6 @@ export async function ensureMariadb({ port, server = checkoutServer, role = 'pri
       // The pool runs with timezone 'Z'; NOW() and TIMESTAMP columns must agree with it.
       '--default-time-zone=+00:00',
       `--innodb-buffer-pool-size=${bufferPoolMb()}M`,
-      // The redo log and the flushing that keeps room in it. With MariaDB's defaults (a 96 MB log, 200 writes a
-      // second) a minute of counter writes (a logged pair writes about 12 kB of redo) fills the log, and the page
-      // cleaner then flushes in bursts to make room while the writes wait: logging pairs at 8 connections measured
-      // p99 30–35 ms that way against 27–29 ms with room to spare. 1,000 writes a second suits an SSD (MariaDB's
-      // default of 200 is set for spinning disks; common practice, recalled from its documentation).
-      '--innodb-log-file-size=512M',
-      '--innodb-io-capacity=1000',
       ...roleArgs({ role, serverId, databases }),
     ],
     { logFile: server.outLog },
