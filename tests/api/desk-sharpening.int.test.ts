@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import { levelReading, sharpening, ticket, ticketPair } from '@rinkwright/db';
+import { createStation } from '@rinkwright/db/testing';
 import { currentDb } from '@rinkwright/db/unscoped';
 import { eq } from 'drizzle-orm';
 import { describe, expect, it } from 'vitest';
@@ -78,6 +79,52 @@ describe('logging a pair', () => {
       ['right', 1, -2_540, desk.world.staff.technician.name],
     ]);
     expect(fetched.pairs[1]?.sharpenings[0]).toMatchObject({ technician: desk.world.staff.manager.name, readings: [] });
+  });
+
+  it('answers each log with the ticket exactly as reading it back gives it: moves, new pairs, credit, re-runs, no readings', async () => {
+    // The answer is built from the rows read under the ticket's lock plus the log's own (no read-back), so it is
+    // checked here against a fresh read after every kind of log.
+    const desk = await createDesk('Ice Harbor');
+    const technician = await as(desk.world.staff.technician);
+    const manager = await as(desk.world.staff.manager);
+    const second = await createStation(currentDb(), desk.world.id, { name: 'Station Two' });
+    const granted = await write(manager, `/api/rinks/${desk.world.slug}/customers/${desk.skater.id}/adjustments`, { credits: 3, reason: 'Prepaid at the counter' });
+    expect(granted.status, JSON.stringify(granted.body)).toBe(201);
+    const balance = async () => (await manager.get(`/api/rinks/${desk.world.slug}/customers/${desk.skater.id}/balance`)).body.credits as number;
+    const made = await takeIn(technician, desk, 2, { payment: 'credit' });
+    expect(await balance()).toBe(1);
+    const readBack = async () => (await technician.get(`/api/rinks/${desk.world.slug}/tickets/${made.id}`)).body as TicketBody;
+    const logged = async (body: Record<string, unknown>, by = technician) => {
+      const answer = await write(by, logPath(desk, made.id), logBody(desk, body));
+      expect(answer.status, JSON.stringify(answer.body)).toBe(201);
+      expect(answer.body).toEqual(await readBack());
+      return answer.body as TicketBody;
+    };
+
+    // Waiting → on Station One, with both readings.
+    const first = await logged({ pairId: made.pairs[0]?.id });
+    const sharpeningId = firstSharpening(first)?.id ?? '';
+    expect((await write(manager, rerunPath(desk, sharpeningId), { readings: [{ blade: 'left', readingNm: 1_270 }] })).status).toBe(201);
+    // Moved to Station Two, no readings, by the manager.
+    const moved = await logged({ pairId: made.pairs[1]?.id, stationId: second.id, readings: [] }, manager);
+    expect(moved).toMatchObject({ state: 'on_station', stationId: second.id, pairCount: 2, pairsDone: 2 });
+    expect(moved.events.map((e) => [e.fromState, e.toState, e.stationName])).toEqual([
+      [null, 'waiting', null],
+      ['waiting', 'on_station', desk.station.name],
+      ['on_station', 'on_station', second.name],
+    ]);
+    // A new pair on the same station, read from a tilt angle: it draws the skater's last credit.
+    const added = await logged({ stationId: second.id, newPair: { label: 'Spare pair', serviceId: desk.service.id }, readings: [{ blade: 'right', tiltDeg: 0.5 }] });
+    expect(added.pairs.map((p) => [p.position, p.label, p.sharpenings.length])).toEqual([
+      [1, 'Pair 1', 1],
+      [2, 'Pair 2', 1],
+      [3, 'Spare pair', 1],
+    ]);
+    expect(await balance()).toBe(0);
+    // With no credit left, a further credit pair is refused whole: no pair, no sharpening, no move.
+    const refused = await write(technician, logPath(desk, made.id), logBody(desk, { newPair: { label: 'One too many', serviceId: desk.service.id } }));
+    expect(refused.status).toBe(409);
+    expect(await readBack()).toEqual(added);
   });
 
   it('turns a tilt angle into Δh = w·tan θ on the logged blade width', async () => {

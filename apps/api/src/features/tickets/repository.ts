@@ -8,7 +8,6 @@ import {
   preparedInsert,
   preparedJoined,
   preparedUpdate,
-  qualified,
   scoped,
   serviceItem,
   step,
@@ -196,6 +195,7 @@ const sharpeningsWithReadings = preparedJoined(sharpening, ['ticketId'], (value)
 
 const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
   fields: {
+    id: ticketEvent.id,
     fromState: ticketEvent.fromState,
     toState: ticketEvent.toState,
     stationId: ticketEvent.stationId,
@@ -213,19 +213,25 @@ const eventsOfTicket = preparedJoined(ticketEvent, ['ticketId'], (value) => ({
   orderBy: [asc(ticketEvent.at), asc(ticketEvent.id)],
 }));
 
+/** The three reads of a whole ticket (`ticketRows`), for a round trip that sends more. */
+export const ticketReads = (ticketId: string) =>
+  [step.select(ticketWithPairs, { ticketId }), step.select(sharpeningsWithReadings, { ticketId }), step.select(eventsOfTicket, { ticketId })] as const;
+
+type Reads = ReturnType<typeof ticketReads>;
+type ResultOf<S> = S extends Step<infer R> ? R : never;
+export interface TicketRows {
+  pairs: ResultOf<Reads[0]>;
+  sharpenings: ResultOf<Reads[1]>;
+  events: ResultOf<Reads[2]>;
+}
+
 /**
- * A ticket as it stands in `s`, with its pairs, sharpenings, readings and history; every ticket page and every
- * counter write answers with it. Pairs come by position; sharpenings in the order they were written, each one's
- * readings by blade (left first) and attempt; the history in time order. `first`: a write's statements, sent ahead
- * of these reads in their round trip.
+ * A ticket's rows in the order its page shows them: pairs by position; sharpenings in the order they were written,
+ * each one's readings by blade (left first) and attempt; the history in time order.
  */
-export async function ticketRows(s: Scope, ticketId: string, first: Step<unknown>[] = []) {
-  const [pairs, sharpenings, events] = await s.together(
-    [step.select(ticketWithPairs, { ticketId }), step.select(sharpeningsWithReadings, { ticketId }), step.select(eventsOfTicket, { ticketId })],
-    { first },
-  );
-  pairs.sort((a, b) => a.position - b.position);
-  sharpenings.sort(
+export function orderTicketRows(rows: TicketRows): TicketRows {
+  rows.pairs.sort((a, b) => a.position - b.position);
+  rows.sharpenings.sort(
     (a, b) =>
       a.createdAt.getTime() - b.createdAt.getTime() ||
       compareText(a.id, b.id) ||
@@ -233,7 +239,14 @@ export async function ticketRows(s: Scope, ticketId: string, first: Step<unknown
       compareText(a.blade ?? '', b.blade ?? '') ||
       (a.attempt ?? 0) - (b.attempt ?? 0),
   );
-  return { pairs, sharpenings, events };
+  rows.events.sort((a, b) => a.at.getTime() - b.at.getTime() || compareText(a.id, b.id));
+  return rows;
+}
+
+/** A ticket as it stands in `s`, with its pairs, sharpenings, readings and history; every ticket page reads it. */
+export async function ticketRows(s: Scope, ticketId: string): Promise<TicketRows> {
+  const [pairs, sharpenings, events] = await s.together(ticketReads(ticketId));
+  return orderTicketRows({ pairs, sharpenings, events });
 }
 
 /** Moves the ticket from one state to another, only if it is still in the state the caller saw. */
@@ -254,20 +267,13 @@ export async function moveTicket(
   });
 }
 
-// A logged pair's station, the wheel on it and the named pair of the ticket with its count, in one read. A statement
-// has a fixed cost, whatever it reads: about 0.2 ms in the API and as much in MariaDB on the bench machine.
-const logTargets = preparedJoined(station, ['stationId', 'pairId', 'ticketId'], (value) => ({
-  fields: {
-    id: station.id,
-    name: station.name,
-    status: station.status,
-    wheelId: wheel.id,
-    pairId: ticketPair.id,
-    pairLogged: sql<number>`(select count(*) from ${sharpening} use index (sharpening_tenant_pair_idx) where ${sharpening.tenantId} = ${qualified(ticketPair, ticketPair.tenantId)} and ${sharpening.ticketPairId} = ${qualified(ticketPair, ticketPair.id)} and ${sharpening.correctsId} is null)`.mapWith(Number),
-  },
+// A logged pair's station, the wheel on it and the technician's name, in one read (the pair is checked against the
+// ticket's own rows, read in the same round trip).
+const logTargets = preparedJoined(station, ['stationId', 'userId'], (value) => ({
+  fields: { id: station.id, name: station.name, status: station.status, wheelId: wheel.id, technician: user.name },
   joins: [
     { table: wheel, on: and(eq(wheel.stationId, station.id), isNull(wheel.removedAt))!, left: true, index: 'wheel_tenant_station_idx' },
-    { table: ticketPair, on: and(eq(ticketPair.id, value('pairId')), eq(ticketPair.ticketId, value('ticketId')))!, left: true, index: 'PRIMARY' },
+    { table: user, on: eq(user.id, value('userId')), left: true },
   ],
   where: eq(station.id, value('stationId')),
   index: 'PRIMARY',
@@ -275,11 +281,10 @@ const logTargets = preparedJoined(station, ['stationId', 'pairId', 'ticketId'], 
 }));
 
 /**
- * Where a pair is logged: the station with the wheel mounted on it (`wheelId` null when none) and, given a pair id,
- * that pair of this ticket with how many original (not correcting) sharpenings it has (`pairId` null when the ticket
- * has no such pair). No row when the rink has no such station.
+ * Where a pair is logged: the station with the wheel mounted on it (`wheelId` null when none), and the name of the
+ * technician logging it. No row when the rink has no such station.
  */
-export const logTarget = (stationId: string, ticketId: string, pairId: string | null) => step.select(logTargets, { stationId, pairId, ticketId });
+export const logTarget = (stationId: string, userId: string) => step.select(logTargets, { stationId, userId });
 
 const toStation = preparedUpdate(ticket, ['ticketId', 'stationId', 'startedAt'], (value) => ({
   set: { state: 'on_station' as const, stationId: sql`${value('stationId')}`, startedAt: sql`${value('startedAt')}` },
@@ -288,20 +293,20 @@ const toStation = preparedUpdate(ticket, ['ticketId', 'stationId', 'startedAt'],
 }));
 const eventInsert = preparedInsert(ticketEvent, ['id', 'ticketId', 'fromState', 'toState', 'stationId', 'reason', 'at', 'byUserId']);
 
-/** Puts the ticket on a station, as the technician would by hand, with its event. */
-export function putOnStation(from: TicketRow, to: { stationId: string; at: Date; byUserId: string }): Step<number>[] {
-  const { stationId, at, byUserId } = to;
+/** Puts the ticket on a station, as the technician would by hand, with its event (`eventId`). */
+export function putOnStation(from: TicketRow, to: { stationId: string; at: Date; byUserId: string; eventId: string }): Step<number>[] {
+  const { stationId, at, byUserId, eventId } = to;
   return [
     step.update(toStation, { ticketId: from.id, stationId, startedAt: from.startedAt ?? at }),
-    step.insert(eventInsert, { id: randomUUID(), ticketId: from.id, fromState: from.state, toState: 'on_station', stationId, reason: null, at, byUserId }),
+    step.insert(eventInsert, { id: eventId, ticketId: from.id, fromState: from.state, toState: 'on_station', stationId, reason: null, at, byUserId }),
   ];
 }
 
-/** A pair added to the ticket after the last one. Under the ticket's lock, so two new pairs never share a position. */
-export async function insertPair(s: Scope, pair: Omit<NewPair, 'position'>) {
-  const [last] = await s.findJoined(ticketPair, { fields: { n: max(ticketPair.position) }, joins: [], where: eq(ticketPair.ticketId, pair.ticketId) });
-  await s.insert(ticketPair, { ...pair, position: (last?.n ?? 0) + 1 });
-}
+const pairInsert = preparedInsert(ticketPair, ['id', 'ticketId', 'position', 'label', 'skateProfileId', 'bladeWidthNm', 'hollowNm', 'serviceId', 'priceMinor', 'notes']);
+export type NewLoggedPair = RowOf<typeof pairInsert>;
+
+/** A pair added to a ticket; the caller gives it the position after the last, read under the ticket's lock. */
+export const insertPair = (pair: NewLoggedPair) => step.insert(pairInsert, pair);
 
 const sharpeningInsert = preparedInsert(sharpening, [
   'id',
@@ -316,13 +321,14 @@ const sharpeningInsert = preparedInsert(sharpening, [
   'doneAt',
   'correctsId',
   'correctionReason',
+  'createdAt',
 ]);
 
 const readingInsert = preparedInsert(levelReading, ['id', 'stationId', 'sharpeningId', 'kind', 'blade', 'attempt', 'readingNm', 'tiltMillideg', 'takenAt', 'takenBy']);
 export type NewReading = RowOf<typeof readingInsert>;
 
 /** A sharpening with its readings (none for a pair logged without a gauge). */
-export function insertSharpening(row: Required<Omit<NewSharpening, 'createdAt'>>, readings: NewReading[]): Step<number>[] {
+export function insertSharpening(row: Required<NewSharpening>, readings: NewReading[]): Step<number>[] {
   return [step.insert(sharpeningInsert, row), ...(readings.length ? [step.insertRows(readingInsert, readings)] : [])];
 }
 

@@ -18,7 +18,7 @@ import type { RinkContext } from '../../http/route';
 import { readDeskSettings } from '../../lib/desk-settings';
 import { noticeMail, type Mailer } from '../../lib/mailer';
 import { groupBy } from '../../lib/sorted';
-import { scoped, type Scope, type Step } from '@rinkwright/db';
+import { scoped, type Scope } from '@rinkwright/db';
 import * as ledger from '../../lib/ledger/ledger';
 import * as repo from './repository';
 
@@ -183,12 +183,13 @@ function toSummary(r: Awaited<ReturnType<typeof repo.listTickets>>[number]): Tic
   };
 }
 
-/**
- * The ticket as it stands in `s` (inside a transaction: with that transaction's own writes). `first`: a write's
- * statements, sent in the same round trip ahead of the reads (`repo.ticketRows`).
- */
-export async function describeTicket(s: Scope, ticketId: string, first?: Step<unknown>[]): Promise<TicketDetail> {
-  const rows = await repo.ticketRows(s, ticketId, first);
+/** The ticket as it stands in `s` (inside a transaction: with that transaction's own writes). */
+export async function describeTicket(s: Scope, ticketId: string): Promise<TicketDetail> {
+  return ticketDetail(await repo.ticketRows(s, ticketId));
+}
+
+/** A ticket's page from its rows, in their order (`repo.orderTicketRows`). */
+function ticketDetail(rows: repo.TicketRows): TicketDetail {
   const head = rows.pairs[0];
   if (!head) throw AppError.notFound(TICKET_NOT_FOUND);
   // A row per reading (one, with null reading fields, for a sharpening without any), in order.
@@ -371,12 +372,14 @@ function assertOneReadingPerBlade(readings: ReadingInput[]) {
  * before it decides a new pair's position or whether the named pair is done. Logging at a station puts the ticket on
  * that station, as the technician would by hand; a refused log rolls back whole and moves nothing.
  *
- * Three round trips to MariaDB: the lock with what the log is checked against; the writes with the reads of the
- * answer; the stored answer with the COMMIT (a new pair adds its own, and its credit's).
+ * Two round trips to MariaDB: the lock with the whole ticket and the station; the writes, the stored answer and the
+ * COMMIT (a new pair sends itself ahead, and redeems its credit, between the two). The answer is the ticket read
+ * under the lock with the log's rows added: what reading it back before the COMMIT would give, as the transaction
+ * reads the snapshot of its first plain read, taken once the lock was held (integration tests compare the two).
  */
 export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string, input: LogSharpeningInput): Promise<TicketDetail> {
-  // The lock is taken first in the round trip, so the target's pair count is read under it.
-  const [[open], [found]] = await s.together([repo.lockTicket(ticketId), repo.logTarget(input.stationId, ticketId, input.newPair ? null : (input.pairId ?? null))]);
+  // The lock is taken first in the round trip, so everything after it is read under it.
+  const [[open], [found], pairs, sharpenings, events] = await s.together([repo.lockTicket(ticketId), repo.logTarget(input.stationId, ctx.userId), ...repo.ticketReads(ticketId)]);
   if (!open) throw AppError.notFound(TICKET_NOT_FOUND);
   if (open.state !== 'waiting' && open.state !== 'on_station') {
     throw new AppError('conflict', `The ticket is ${open.state.replace('_', ' ')}: reopen it on a station to log more`);
@@ -384,55 +387,71 @@ export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string
   const target = activeStation(found);
   assertOneReadingPerBlade(input.readings);
   const now = new Date();
+  const technician = found!.technician ?? ctx.name;
+  const head = pairs[0]!;
   let pairId: string;
-  let newPair: Parameters<typeof repo.insertPair>[1] | undefined;
-  let newPairIsStandard = false;
   if (input.newPair) {
     const [service] = await repo.findServices(s, [input.newPair.serviceId]);
     if (!service || service.active !== 1) throw AppError.field('newPair.serviceId', 'Choose one of the rink’s active services');
-    newPairIsStandard = service.kind === 'standard';
     pairId = randomUUID();
-    newPair = {
+    const pair = {
       id: pairId,
       ticketId,
-      skateProfileId: null,
+      position: Math.max(0, ...pairs.map((p) => p.position ?? 0)) + 1,
       label: input.newPair.label,
+      skateProfileId: null,
       bladeWidthNm: input.newPair.bladeWidthNm,
       hollowNm: input.newPair.hollowNm,
       serviceId: service.id,
       priceMinor: service.priceMinor,
       notes: input.newPair.notes,
     };
-  } else {
-    if (!target.pairId) throw AppError.field('pairId', 'No such pair on this ticket');
-    if (target.pairLogged > 0) throw new AppError('conflict', ALREADY_LOGGED);
-    pairId = target.pairId;
-  }
-  if (newPair) {
-    await repo.insertPair(s, newPair);
+    await s.together([repo.insertPair(pair)]);
     // A batch pair paid by credit draws its credit here, keyed by the pair.
-    if (open.creditAccountId && newPairIsStandard) await redeemForPair(s, ctx, open.creditAccountId, pairId);
+    if (open.creditAccountId && service.kind === 'standard') await redeemForPair(s, ctx, open.creditAccountId, pairId);
+    const { id: _id, ticketId: _ticket, notes, ...kept } = pair;
+    // A ticket without pairs reads as one row whose pair fields are null (the left join).
+    pairs.splice(0, pairs.length, ...pairs.filter((p) => p.pairId !== null), { ...head, ...kept, pairId, serviceName: service.name, pairNotes: notes });
+  } else {
+    const named = pairs.find((p) => p.pairId !== null && p.pairId === input.pairId);
+    if (!named?.pairId) throw AppError.field('pairId', 'No such pair on this ticket');
+    if (sharpenings.some((r) => r.ticketPairId === named.pairId && r.correctsId === null)) throw new AppError('conflict', ALREADY_LOGGED);
+    pairId = named.pairId;
   }
-  const moves = open.state === 'waiting' || open.stationId !== target.id ? repo.putOnStation(open, { stationId: target.id, at: now, byUserId: ctx.userId }) : [];
+  if (open.state === 'waiting' || open.stationId !== target.id) {
+    const eventId = randomUUID();
+    for (const w of repo.putOnStation(open, { stationId: target.id, at: now, byUserId: ctx.userId, eventId })) s.atCommit(w);
+    for (const p of pairs) Object.assign(p, { state: 'on_station', stationId: target.id });
+    events.push({ id: eventId, fromState: open.state, toState: 'on_station', stationId: target.id, stationName: target.name, reason: null, at: now, by: technician });
+  }
   const sharpeningId = randomUUID();
-  const logged = repo.insertSharpening(
-    {
-      id: sharpeningId,
-      ticketId,
-      ticketPairId: pairId,
-      stationId: target.id,
-      wheelId: target.wheelId ?? null,
-      technicianId: ctx.userId,
-      hollowNm: input.hollowNm,
-      passes: input.passes,
-      bladeWidthNm: input.bladeWidthNm,
-      doneAt: now,
-      correctsId: null,
-      correctionReason: null,
-    },
-    readingRows(ctx, target.id, sharpeningId, input.bladeWidthNm, input.readings, () => 1, now),
+  const row = {
+    id: sharpeningId,
+    ticketId,
+    ticketPairId: pairId,
+    stationId: target.id,
+    wheelId: target.wheelId ?? null,
+    technicianId: ctx.userId,
+    hollowNm: input.hollowNm,
+    passes: input.passes,
+    bladeWidthNm: input.bladeWidthNm,
+    doneAt: now,
+    correctsId: null,
+    correctionReason: null,
+    createdAt: now,
+  };
+  const readings = readingRows(ctx, target.id, sharpeningId, input.bladeWidthNm, input.readings, () => 1, now);
+  for (const w of repo.insertSharpening(row, readings)) s.atCommit(w);
+  const { ticketId: _t, technicianId: _u, ...shown } = row;
+  const done = { ...shown, stationName: target.name, technician };
+  // The reading fields of a sharpening without readings are the left join's nulls, which the row type does not carry.
+  const none = { readingId: null, blade: null, attempt: null, readingNm: null, tiltMillideg: null, takenAt: null, takenBy: null } as unknown as Omit<(typeof sharpenings)[number], keyof typeof done>;
+  sharpenings.push(
+    ...(readings.length === 0
+      ? [{ ...done, ...none }]
+      : readings.map((r) => ({ ...done, readingId: r.id, blade: r.blade, attempt: r.attempt, readingNm: r.readingNm, tiltMillideg: r.tiltMillideg, takenAt: r.takenAt, takenBy: technician }))),
   );
-  return describeTicket(s, ticketId, [...moves, ...logged]);
+  return ticketDetail(repo.orderTicketRows({ pairs, sharpenings, events }));
 }
 
 async function requireSharpening(ctx: RinkContext, sharpeningId: string) {
