@@ -303,10 +303,9 @@ export function putOnStation(from: TicketRow, to: { stationId: string; at: Date;
 }
 
 const pairInsert = preparedInsert(ticketPair, ['id', 'ticketId', 'position', 'label', 'skateProfileId', 'bladeWidthNm', 'hollowNm', 'serviceId', 'priceMinor', 'notes']);
-export type NewLoggedPair = RowOf<typeof pairInsert>;
 
 /** A pair added to a ticket; the caller gives it the position after the last, read under the ticket's lock. */
-export const insertPair = (pair: NewLoggedPair) => step.insert(pairInsert, pair);
+export const insertPair = (pair: RowOf<typeof pairInsert>) => step.insert(pairInsert, pair);
 
 const sharpeningInsert = preparedInsert(sharpening, [
   'id',

@@ -388,7 +388,6 @@ export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string
   assertOneReadingPerBlade(input.readings);
   const now = new Date();
   const technician = found!.technician ?? ctx.name;
-  const head = pairs[0]!;
   let pairId: string;
   if (input.newPair) {
     const [service] = await repo.findServices(s, [input.newPair.serviceId]);
@@ -410,8 +409,8 @@ export async function logSharpening(s: Scope, ctx: RinkContext, ticketId: string
     // A batch pair paid by credit draws its credit here, keyed by the pair.
     if (open.creditAccountId && service.kind === 'standard') await redeemForPair(s, ctx, open.creditAccountId, pairId);
     const { id: _id, ticketId: _ticket, notes, ...kept } = pair;
-    // A ticket without pairs reads as one row whose pair fields are null (the left join).
-    pairs.splice(0, pairs.length, ...pairs.filter((p) => p.pairId !== null), { ...head, ...kept, pairId, serviceName: service.name, pairNotes: notes });
+    // A ticket without pairs reads as one row whose pair fields are null (the left join); the head fields are on every row.
+    pairs.splice(0, pairs.length, ...pairs.filter((p) => p.pairId !== null), { ...pairs[0]!, ...kept, pairId, serviceName: service.name, pairNotes: notes });
   } else {
     const named = pairs.find((p) => p.pairId !== null && p.pairId === input.pairId);
     if (!named?.pairId) throw AppError.field('pairId', 'No such pair on this ticket');
